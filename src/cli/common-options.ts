@@ -1,0 +1,59 @@
+/**
+ * Options shared by several commands, declared once. Commands add them with these helpers and read
+ * them back typed.
+ *
+ * OWNER: integration (lead). Helpers use these; ask before changing names.
+ */
+import { Command, Option } from 'commander';
+import type { KindOverrides } from '../parse/record-parser.js';
+import { UsageError } from '../errors.js';
+
+export interface SourceOptions {
+  poll?: number | boolean;
+  parser: string[];
+  residual: string[];
+  quantity: string[];
+}
+
+const collect = (value: string, previous: string[]): string[] => [...previous, value];
+
+export function parsePositiveNumber(flag: string, value: string, { integer = false } = {}): number {
+  const n = Number(value);
+  if (value.trim() === '' || !Number.isFinite(n) || n <= 0 || (integer && !Number.isInteger(n))) {
+    throw new UsageError(`${flag} needs a positive ${integer ? 'whole ' : ''}number, got '${value}'`,
+      `for example ${flag} ${integer ? '500' : '1e-5'}`);
+  }
+  return n;
+}
+
+/** --parser, --residual, --quantity, --poll: how a log is read and understood. */
+export function addSourceOptions(command: Command): Command {
+  return command
+    .addOption(new Option('--parser <spec>', 'parser spec file (JSON) or built-in spec id; repeatable').argParser(collect).default([]))
+    .addOption(new Option('--residual <glob>', 'treat series matching this glob as residuals; repeatable').argParser(collect).default([]))
+    .addOption(new Option('--quantity <glob>', 'treat series matching this glob as monitored quantities; repeatable').argParser(collect).default([]))
+    .addOption(new Option('--poll [ms]', 'poll the file every ms (default 1000) instead of waiting for change events; for network file systems')
+      .argParser((v: string) => parsePositiveNumber('--poll', v, { integer: true })));
+}
+
+export function kindOverridesOf(options: SourceOptions): KindOverrides {
+  return { residual: options.residual, quantity: options.quantity };
+}
+
+export function pollMsOf(options: SourceOptions): number | undefined {
+  if (options.poll === undefined || options.poll === false) return undefined;
+  return options.poll === true ? 1000 : options.poll;
+}
+
+/** Spec files (paths) and a forced built-in id, from the --parser values. A value that names an
+ * existing file or ends in .json is a file; anything else is a spec id. */
+export function parserSelectionOf(options: SourceOptions, isFile: (value: string) => boolean): { files: string[]; id?: string } {
+  const files: string[] = [];
+  let id: string | undefined;
+  for (const value of options.parser) {
+    if (value.endsWith('.json') || isFile(value)) files.push(value);
+    else if (id === undefined) id = value;
+    else throw new UsageError(`--parser names two spec ids ('${id}' and '${value}')`, 'give one spec id, or spec files');
+  }
+  return { files, id };
+}

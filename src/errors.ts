@@ -1,0 +1,41 @@
+/**
+ * The few errors settle reports to users. Each has a stable code, a one-line message that says what
+ * was wrong, and a hint that says how to fix it. Only the CLI entry point turns them into exit codes.
+ */
+
+export abstract class SettleError extends Error {
+  abstract readonly code: string;
+  /** Process exit code for this failure (2 usage, 3 unreadable input). */
+  abstract readonly exitCode: number;
+  constructor(message: string, readonly hint?: string) {
+    super(message);
+    this.name = new.target.name;
+  }
+}
+
+/** The command line or a file the user wrote (spec, criteria) is wrong. Exit code 2. */
+export class UsageError extends SettleError {
+  readonly code = 'usage';
+  readonly exitCode = 2;
+}
+
+/** A parser spec or criteria file failed validation: every problem as `file: path.to.field: message`. */
+export class SpecError extends SettleError {
+  readonly code = 'spec';
+  readonly exitCode = 2;
+  constructor(readonly file: string, readonly problems: readonly string[], hint?: string) {
+    super(`${file}: ${problems.length} problem${problems.length === 1 ? '' : 's'}:\n  ${problems.join('\n  ')}`, hint);
+  }
+}
+
+/** An input cannot be read (missing, unreadable, not a log). Exit code 3. */
+export class InputError extends SettleError {
+  readonly code = 'input';
+  readonly exitCode = 3;
+}
+
+/** Cut a user's text (a line, a value) short for an error message. */
+export function shorten(text: string, max = 80): string {
+  const oneLine = text.replace(/[\r\n\t]+/g, ' ');
+  return oneLine.length <= max ? oneLine : `${oneLine.slice(0, max - 1)}…`;
+}

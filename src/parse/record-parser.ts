@@ -1,0 +1,51 @@
+/**
+ * The contract between parse and the rest: a parser turns complete lines into records.
+ * Implementations are compiled from declarative specs (parsers/*.json) or inferred from a log.
+ */
+import type { LogRecord, SeriesInfo } from './log-record.js';
+
+export type RecordSink = (record: LogRecord) => void;
+
+export interface ParseStats {
+  /** Lines fed so far. */
+  readonly lines: number;
+  /** Lines that no rule matched and that were not explicitly ignored. */
+  readonly unmatched: number;
+  /** A few unmatched lines (cut short), for `settle parsers test`. */
+  readonly unmatchedSample: readonly string[];
+  /** Records emitted so far. */
+  readonly records: number;
+  /** Restarts seen so far (counter went back, or noteRestart()). */
+  readonly restarts: number;
+}
+
+export interface RecordParser {
+  /** Spec id (e.g. `settle-kv`) or `inferred`. */
+  readonly id: string;
+  /** Feed one complete line (no terminator). Completed records go to the sink given at creation. */
+  pushLine(line: string): void;
+  /** The source ended: emit any record still open (e.g. the last block of a block format). */
+  finish(): void;
+  /** The source restarted (file truncated or replaced, next file of a chain): the next record is
+   * marked `restart`, and table headers must be seen again. */
+  noteRestart(): void;
+  /** Series seen so far, with their kind (after user overrides), unit and label. */
+  seriesInfo(): ReadonlyMap<string, SeriesInfo>;
+  stats(): ParseStats;
+}
+
+/** What parser was chosen for a log, and why (said to the user). */
+export interface ParserChoice {
+  /** Spec id or `inferred`. */
+  readonly id: string;
+  /** One line, e.g. `spec settle-csv (built-in): header row matched` or
+   * `inferred: whitespace table with 7 numeric columns`. */
+  readonly explanation: string;
+  create(onRecord: RecordSink): RecordParser;
+}
+
+/** User overrides of series kinds, as globs on series names (`--residual`, `--quantity`). */
+export interface KindOverrides {
+  readonly residual: readonly string[];
+  readonly quantity: readonly string[];
+}
