@@ -21,6 +21,10 @@ export interface RunMonitorOptions {
   readonly parserId?: string;
   readonly kindOverrides: KindOverrides;
   readonly criteria: Criteria;
+  /** Judge the run (default true). `settle inspect` turns it off: it only reads. */
+  readonly analyse?: boolean;
+  /** Standard input for the path '-' (tests inject one). Default process.stdin. */
+  readonly stdin?: NodeJS.ReadableStream;
   /** Retained points per series before older history is thinned (bounded memory). */
   readonly storeCapacity?: number;
   /** Clock for pace figures (lines/s, last growth). Injected so tests can control it. Default Date.now. */

@@ -1,0 +1,191 @@
+/**
+ * The run monitor: one source → parser → series store → incremental analysis, with events.
+ *
+ * Determinism: records are judged at evaluation points fixed by the record count
+ * (isEvaluationPoint), never by how bytes happened to arrive, so a log read at once and the same
+ * log followed live in any chunking reach the same verdicts at the same iterations.
+ */
+import { openLineSource } from '../ingest/open-line-source.js';
+import type { LineSource, SourceEvent } from '../ingest/line-source.js';
+import { loadParserSpecs } from '../parse/load-parser-specs.js';
+import { chooseParser } from '../parse/choose-parser.js';
+import type { ParserChoice, ParseStats, RecordParser } from '../parse/record-parser.js';
+import type { LogRecord, SeriesInfo } from '../parse/log-record.js';
+import { SeriesStore } from '../series/series-store.js';
+import { createRunJudge } from '../analysis/run-judge.js';
+import { isEvaluationPoint } from '../analysis/evaluation-schedule.js';
+import type { RunDiagnosis } from '../analysis/diagnosis.js';
+import { PaceMeter } from './pace-meter.js';
+import { TypedEmitter } from './typed-emitter.js';
+import type { MonitorPace, RunMonitor, RunMonitorEvents, RunMonitorOptions } from './run-monitor-types.js';
+
+/** Lines collected before the parser is chosen (fewer when the log is shorter or goes quiet). */
+export const DETECTION_LINES = 200;
+/** When following a log that has fewer lines than DETECTION_LINES, choose after this quiet time. */
+const DETECTION_QUIET_MS = 400;
+
+export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
+  // Spec files are loaded up front so a broken spec is reported before any reading starts.
+  const specs = loadParserSpecs({ files: options.parserFiles });
+  const now = options.now ?? Date.now;
+  const analyse = options.analyse ?? true;
+  const store = new SeriesStore(options.storeCapacity);
+  const judge = createRunJudge(options.criteria);
+  const events = new TypedEmitter<RunMonitorEvents>();
+  const pace = new PaceMeter(now);
+  const label = options.paths.join(' + ');
+
+  let source: LineSource | undefined;
+  let choice: ParserChoice | undefined;
+  let parser: RecordParser | undefined;
+  let pending: string[] = [];
+  let restartBeforeParser = false;
+  let detectionTimer: NodeJS.Timeout | undefined;
+  let latest: RunDiagnosis | undefined;
+  let latestRecords = -1;
+  let evaluatedRecords = -1;
+  let addedInBatch = 0;
+  let timelineSeen = 0;
+  let finished: RunDiagnosis | undefined;
+
+  const infoOf = (name: string): SeriesInfo => parser?.seriesInfo().get(name) ?? { name, kind: 'quantity' };
+
+  function onRecord(record: LogRecord): void {
+    store.add(record, infoOf);
+    addedInBatch++;
+    if (analyse && isEvaluationPoint(store.records)) evaluate();
+  }
+
+  function syncSeriesInfo(): void {
+    if (parser === undefined) return;
+    for (const info of parser.seriesInfo().values()) {
+      const column = store.column(info.name);
+      if (column !== undefined && (column.info.kind !== info.kind || column.info.unit !== info.unit || column.info.label !== info.label)) {
+        store.describe(info);
+      }
+    }
+  }
+
+  function evaluate(): RunDiagnosis {
+    syncSeriesInfo();
+    const diagnosis = judge.update(store.snapshot());
+    latest = diagnosis;
+    latestRecords = store.records;
+    evaluatedRecords = store.records;
+    for (const change of diagnosis.timeline.slice(timelineSeen)) events.emit('state-change', change);
+    timelineSeen = diagnosis.timeline.length;
+    events.emit('diagnosis', diagnosis);
+    return diagnosis;
+  }
+
+  function startParser(): void {
+    if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+    detectionTimer = undefined;
+    choice = chooseParser(pending, {
+      specs,
+      forcedId: options.parserId,
+      overrides: options.kindOverrides,
+      source: label,
+    });
+    parser = choice.create(onRecord);
+    events.emit('parser', choice);
+    if (restartBeforeParser) parser.noteRestart();
+    const lines = pending;
+    pending = [];
+    feed(lines);
+  }
+
+  function feed(lines: readonly string[]): void {
+    addedInBatch = 0;
+    const p = parser as RecordParser;
+    for (const line of lines) p.pushLine(line);
+    if (addedInBatch > 0) events.emit('records', addedInBatch);
+  }
+
+  function onLines(lines: readonly string[]): void {
+    pace.addLines(lines.length);
+    if (parser !== undefined) {
+      feed(lines);
+      pace.setRecords(store.records);
+      return;
+    }
+    for (const line of lines) pending.push(line);
+    if (pending.length >= DETECTION_LINES) {
+      startParser();
+    } else if (options.follow) {
+      if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+      detectionTimer = setTimeout(() => {
+        detectionTimer = undefined;
+        if (parser === undefined && pending.length > 0) guarded(startParser);
+      }, DETECTION_QUIET_MS);
+    }
+    pace.setRecords(store.records);
+  }
+
+  let failure: unknown;
+  /** Errors thrown inside a timer cannot reach run()'s caller directly: keep them and stop. */
+  function guarded(action: () => void): void {
+    try {
+      action();
+    } catch (error) {
+      failure = error;
+      void source?.close();
+    }
+  }
+
+  function onEvent(event: SourceEvent): void {
+    if (event.type === 'truncated' || event.type === 'replaced' || (event.type === 'opened' && event.index > 0)) {
+      if (parser !== undefined) parser.noteRestart();
+      else restartBeforeParser = true;
+    }
+    if (event.type === 'end') {
+      if (parser === undefined && pending.length > 0) startParser();
+      addedInBatch = 0;
+      parser?.finish();
+      if (addedInBatch > 0) events.emit('records', addedInBatch);
+      pace.setRecords(store.records);
+    }
+    events.emit('source', event);
+  }
+
+  function finalDiagnosis(): RunDiagnosis {
+    if (!analyse) return peek();
+    return evaluatedRecords === store.records && latest !== undefined ? latest : evaluate();
+  }
+
+  function peek(): RunDiagnosis {
+    if (latest === undefined || latestRecords !== store.records) {
+      syncSeriesInfo();
+      latest = judge.peek(store.snapshot());
+      latestRecords = store.records;
+    }
+    return latest;
+  }
+
+  const monitor: RunMonitor = {
+    label,
+    store,
+    async run(): Promise<RunDiagnosis> {
+      if (source !== undefined) throw new Error('run() called twice on one monitor');
+      source = openLineSource({ paths: options.paths, follow: options.follow, pollMs: options.pollMs, stdin: options.stdin });
+      await source.run({
+        onLines: (lines) => guarded(() => onLines(lines)),
+        onEvent: (event) => guarded(() => onEvent(event)),
+      });
+      if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+      if (failure !== undefined) throw failure;
+      finished = finalDiagnosis();
+      events.emit('end', finished);
+      return finished;
+    },
+    async stop(): Promise<void> {
+      await source?.close();
+    },
+    parserChoice: () => choice,
+    parseStats: (): ParseStats | undefined => parser?.stats(),
+    diagnosis: () => finished ?? peek(),
+    pace: (): MonitorPace => pace.read(),
+    on: (event, listener) => events.on(event, listener),
+  };
+  return monitor;
+}
