@@ -1,7 +1,7 @@
 /**
  * Print a duration in milliseconds the way a person would type it for `--idle` (the inverse of
- * parseDuration for whole units): `1500ms`, `30s`, `5m`, `2h`; other values in the largest unit
- * with up to two decimals (`1.5s`). Pure; O(1).
+ * parseDuration for whole units): `1500ms`, `30s`, `5m`, `2h`; other values under a minute in
+ * milliseconds, longer ones in the largest unit with up to two decimals (`1.51m`). Pure; O(1).
  */
 export function formatDuration(ms: number): string {
   if (!Number.isFinite(ms)) return String(ms);
@@ -9,7 +9,7 @@ export function formatDuration(ms: number): string {
   for (const [unit, size] of units) {
     if (ms >= size && ms % size === 0) return `${ms / size}${unit}`;
   }
-  if (ms < 1000) return `${ms}ms`;
+  if (ms < 60_000) return `${Math.round(ms)}ms`;
   const [unit, size] = units.find(([, size]) => ms >= size) ?? units[units.length - 1];
   return `${Number((ms / size).toFixed(2))}${unit}`;
 }
