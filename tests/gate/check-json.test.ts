@@ -50,7 +50,7 @@ describe('check JSON, several logs', () => {
     ]);
     expect(Object.keys(json)).toEqual(['verdict', 'exitCode', 'runs']);
     expect(json).toMatchObject({ verdict: 'stalled', exitCode: 20 });
-    const runs = (json as { runs: Record<string, unknown>[] }).runs;
+    const runs = (json as unknown as { runs: Record<string, unknown>[] }).runs;
     expect(runs.map((run) => run.log)).toEqual(['a.log', 'b.log', 'c.log']);
     expect(Object.keys(runs[0])).toEqual(['log', 'verdict', 'exitCode', 'iterations', 'advice', 'reasons', 'series']);
   });
