@@ -19,7 +19,7 @@ describe('check text', () => {
     expect(lines[3]).toBe('          cd settled at 0.3312 ± 0.0004');
     expect(lines[5]).toMatch(/^ {2}series +kind +state +last +figures$/);
     expect(lines[6]).toMatch(/^ {2}res_p +residual +converged +9\.100e-4 +3\.2 decades down, 2\.4 decades\/1000 it, rho 0\.99449$/);
-    expect(lines[7]).toMatch(/^ {2}cd +quantity +converged +0\.3312 +mean 0\.33118 ± 0\.00041$/);
+    expect(lines[7]).toMatch(/^ {2}cd +quantity +converged +0\.3312 +mean 0\.33118 ± 4\.1e-4$/);
   });
 
   it('names figures of cycles, time to target and iteration error', () => {
