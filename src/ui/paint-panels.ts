@@ -1,0 +1,194 @@
+/**
+ * Paint a dashboard model into styled text, panel by panel, for the panel sizes in its layout. Pure:
+ * the screen shell only copies these lines into its boxes. Every panel comes back as exactly as many
+ * lines as its interior has rows, each exactly as wide as the interior.
+ */
+import type { DashboardModel, HeaderModel, OverviewModel, RunViewModel, SeriesRow, TimelineEntry, VerdictModel } from './dashboard-model.js';
+import type { Rect } from './dashboard-layout.js';
+import { MIN_COLS, MIN_ROWS } from './dashboard-layout.js';
+import { paintChart } from './braille-chart.js';
+import { QUANTITY_LABEL_WIDTH, RESIDUAL_LABEL_WIDTH } from './build-view-model.js';
+import { bannerStyle, seriesStyle, stateStyle } from './series-styles.js';
+import type { Segment, StyledLine, TextStyle } from './styled-text.js';
+import { fitLine } from './styled-text.js';
+import { fit, fitRight } from './format-figures.js';
+import { KEY_HELP } from './view-state.js';
+
+export interface PaintedPanel {
+  readonly rect: Rect;
+  /** Border title, or undefined for a borderless panel. */
+  readonly title?: string;
+  readonly lines: readonly StyledLine[];
+}
+
+export type PanelName = 'header' | 'verdict' | 'residuals' | 'quantity' | 'table' | 'timeline' | 'footer' | 'overview' | 'help' | 'notice';
+
+/** Every visible panel of `model`, painted. Boxed panels' lines fill the interior (rect minus border). */
+export function paintDashboard(model: DashboardModel, colour: boolean): Partial<Record<PanelName, PaintedPanel>> {
+  const { layout } = model;
+  if (model.tooSmall) {
+    const rect: Rect = { left: 0, top: 0, width: layout.cols, height: layout.rows };
+    const text = `terminal is ${layout.cols}×${layout.rows}; settle watch needs at least ${MIN_COLS}×${MIN_ROWS}`;
+    return { notice: { rect, lines: [fitLine([{ text }], layout.cols), fitLine([{ text: 'enlarge the window, or press q to quit' }], layout.cols)] } };
+  }
+  const panels: Partial<Record<PanelName, PaintedPanel>> = model.kind === 'run' ? paintRun(model, colour) : paintOverview(model);
+  if (model.help) panels.help = { rect: layout.help, title: ' keys ', lines: paintHelp(layout.help.width - 2, layout.help.height - 2) };
+  return panels;
+}
+
+const inner = (rect: Rect): { width: number; height: number } => ({ width: Math.max(0, rect.width - 2), height: Math.max(0, rect.height - 2) });
+
+function paintRun(model: RunViewModel, colour: boolean): Partial<Record<PanelName, PaintedPanel>> {
+  const { layout } = model;
+  const r = inner(layout.residuals);
+  const q = inner(layout.quantity);
+  const t = inner(layout.table);
+  const l = inner(layout.timeline);
+  return {
+    header: { rect: layout.header, lines: [paintHeader(model.header, layout.header.width)] },
+    verdict: { rect: layout.verdict, lines: paintVerdict(model.verdict, layout.verdict.width) },
+    residuals: { rect: layout.residuals, title: ' residuals, log scale ', lines: paintChart(model.residuals, r.width, r.height, RESIDUAL_LABEL_WIDTH, colour) },
+    quantity: { rect: layout.quantity, title: ` ${model.quantity.title} `, lines: paintChart(model.quantity, q.width, q.height, QUANTITY_LABEL_WIDTH, colour) },
+    table: { rect: layout.table, title: ' series ', lines: paintTable(model.rows, t.width, t.height) },
+    timeline: { rect: layout.timeline, title: ' state changes, newest first ', lines: paintTimeline(model.timeline, l.width, l.height) },
+    footer: { rect: layout.footer, lines: [fitLine([{ text: model.footer, style: { fg: 'gray' } }], layout.footer.width)] },
+  };
+}
+
+export function paintHeader(header: HeaderModel, width: number): StyledLine {
+  const sep: Segment = { text: '  ·  ', style: { fg: 'gray' } };
+  const right: Segment[] = [sep, { text: header.parser }, sep, { text: header.position, style: { bold: true } }, sep, { text: header.pace }, sep,
+    header.stale ? { text: `no growth: ${header.growth.replace(/^grew /, 'last grew ')}`, style: { fg: 'yellow', bold: true, inverse: true } } : { text: header.growth }];
+  if (header.span !== 'whole history') right.push(sep, { text: header.span });
+  if (header.paused) right.push(sep, { text: 'PAUSED', style: { inverse: true, bold: true } });
+  const rightWidth = right.reduce((sum, segment) => sum + Array.from(segment.text).length, 0);
+  // The file name gives way first, cut from the left (its end names the run).
+  const room = Math.max(12, width - rightWidth);
+  const chars = Array.from(header.file);
+  const file = chars.length <= room ? header.file : `…${chars.slice(chars.length - room + 1).join('')}`;
+  return fitLine([{ text: file, style: { bold: true } }, ...right], width);
+}
+
+export function paintVerdict(verdict: VerdictModel, width: number): StyledLine[] {
+  const headline: Segment = { text: ` ${verdict.headline} `, style: bannerStyle(verdict.state) };
+  return [
+    fitLine([headline, { text: '  ' }, { text: verdict.advice, style: { bold: true } }], width),
+    fitLine([{ text: verdict.details }], width),
+  ];
+}
+
+interface Column {
+  readonly title: string;
+  readonly width: number;
+  readonly align: 'left' | 'right';
+  readonly cell: (row: SeriesRow) => Segment;
+}
+
+const TABLE_COLUMNS: readonly Column[] = [
+  { title: 'state', width: 11, align: 'left', cell: (row) => ({ text: row.stateText, style: row.stateText === row.state ? stateStyle(row.state) : { fg: 'gray' } }) },
+  { title: 'last', width: 8, align: 'right', cell: (row) => ({ text: row.last }) },
+  { title: 'trend', width: 10, align: 'right', cell: (row) => ({ text: row.trend }) },
+  { title: 'it left', width: 8, align: 'right', cell: (row) => ({ text: row.etaIterations }) },
+  { title: 'time left', width: 9, align: 'right', cell: (row) => ({ text: row.etaTime }) },
+  { title: 'settled ±95%', width: 16, align: 'right', cell: (row) => ({ text: row.settled }) },
+];
+const NAME_MIN = 8;
+const WHY_MIN = 24;
+
+export function paintTable(rows: readonly SeriesRow[], width: number, height: number): StyledLine[] {
+  if (height <= 0) return [];
+  // Columns that fit, in priority order (the name keeps at least NAME_MIN cells).
+  const columns: Column[] = [];
+  let used = 2 + NAME_MIN;
+  for (const column of TABLE_COLUMNS) {
+    if (used + 1 + column.width > width) break;
+    columns.push(column);
+    used += 1 + column.width;
+  }
+  const spare = width - used;
+  const why = spare >= WHY_MIN + 8;
+  const nameWidth = NAME_MIN + (why ? Math.min(8, spare - WHY_MIN) : Math.min(spare, 12));
+  const whyWidth = why ? width - used - (nameWidth - NAME_MIN) - 1 : 0;
+  const pad = (text: string, column: { width: number; align: 'left' | 'right' }): string =>
+    column.align === 'right' ? fitRight(text, column.width) : fit(text, column.width, true);
+
+  const head: Segment[] = [{ text: `  ${fit('series', nameWidth, true)}` }];
+  for (const column of columns) head.push({ text: ` ${pad(column.title, column)}` });
+  if (why) head.push({ text: ` ${fit('why', whyWidth, true)}` });
+  const lines: StyledLine[] = [fitLine(head.map((s) => ({ text: s.text, style: { fg: 'gray', underline: true } as TextStyle })), width)];
+
+  // Scroll so the cursor row stays in view.
+  const visible = height - 1;
+  const cursor = Math.max(0, rows.findIndex((row) => row.cursor));
+  const first = Math.max(0, Math.min(cursor - visible + 1, rows.length - visible));
+  for (const row of rows.slice(first, first + visible)) {
+    const style = seriesStyle(row.style);
+    const cells: Segment[] = [
+      { text: `${row.hidden ? '-' : style.marker} `, style: { fg: style.colour, bold: true } },
+      { text: fit(row.hidden ? `${row.name} (hidden)` : row.name, nameWidth, true), style: row.hidden ? { fg: 'gray' } : { fg: style.colour } },
+    ];
+    for (const column of columns) {
+      const cell = column.cell(row);
+      cells.push({ text: ' ' }, { text: pad(cell.text, column), style: cell.style });
+    }
+    if (why) cells.push({ text: ' ' }, { text: fit(row.reason, whyWidth, true), style: { fg: 'gray' } });
+    const line = fitLine(cells, width);
+    lines.push(row.cursor ? line.map((segment) => ({ text: segment.text, style: { ...segment.style, inverse: true } })) : line);
+  }
+  if (rows.length === 0) lines.push(fitLine([{ text: '  no series yet', style: { fg: 'gray' } }], width));
+  while (lines.length < height) lines.push(fitLine([], width));
+  return lines.slice(0, height);
+}
+
+export function paintTimeline(entries: readonly TimelineEntry[], width: number, height: number): StyledLine[] {
+  const lines: StyledLine[] = entries.slice(0, height).map((entry) => fitLine([{ text: entry.text, style: stateStyle(entry.state) }], width));
+  if (entries.length === 0 && height > 0) lines.push(fitLine([{ text: 'no state changes yet', style: { fg: 'gray' } }], width));
+  while (lines.length < height) lines.push(fitLine([], width));
+  return lines.slice(0, height);
+}
+
+export function paintHelp(width: number, height: number): StyledLine[] {
+  const keyWidth = Math.max(...KEY_HELP.map((entry) => entry.keys.length)) + 2;
+  const lines: StyledLine[] = KEY_HELP.map((entry) => fitLine([{ text: fit(entry.keys, keyWidth, true), style: { bold: true } }, { text: entry.action }], width));
+  lines.push(fitLine([], width));
+  lines.push(fitLine([{ text: 'residual axis: powers of ten (1e-3 = 0.001); dotted: target' }], width));
+  lines.push(fitLine([{ text: 'quantity: solid = settled mean, faint = its 95 % band' }], width));
+  lines.push(fitLine([{ text: 'markers (o + x * ...) name the series in every panel' }], width));
+  lines.push(fitLine([{ text: 'any key closes this help', style: { fg: 'gray' } }], width));
+  while (lines.length < height) lines.push(fitLine([], width));
+  return lines.slice(0, height);
+}
+
+function paintOverview(model: OverviewModel): Partial<Record<PanelName, PaintedPanel>> {
+  const { layout } = model;
+  const { width, height } = inner(layout.overview);
+  const verdictWidth = 12;
+  const iterationWidth = 11;
+  const residualWidth = 18;
+  const growthWidth = 14;
+  const labelWidth = Math.max(10, width - 2 - verdictWidth - iterationWidth - residualWidth - growthWidth - 4);
+  const lines: StyledLine[] = [fitLine([{
+    text: `  ${fit('run', labelWidth, true)} ${fit('verdict', verdictWidth, true)} ${fitRight('iteration', iterationWidth)} ${fit('worst residual', residualWidth, true)} ${fit('last growth', growthWidth, true)}`,
+    style: { fg: 'gray', underline: true },
+  }], width)];
+  const visible = height - 1;
+  const cursor = Math.max(0, model.rows.findIndex((row) => row.cursor));
+  const first = Math.max(0, Math.min(cursor - visible + 1, model.rows.length - visible));
+  for (const row of model.rows.slice(first, first + visible)) {
+    const line = fitLine([
+      { text: row.cursor ? '> ' : '  ', style: { bold: true } },
+      { text: fit(row.label, labelWidth, true) },
+      { text: ' ' },
+      { text: fit(row.verdict ?? 'waiting', verdictWidth, true), style: stateStyle(row.verdict) },
+      { text: ` ${fitRight(row.iteration, iterationWidth)} ${fit(row.worstResidual, residualWidth, true)} ` },
+      { text: fit(row.lastGrowth, growthWidth, true), style: row.stale ? { fg: 'yellow', bold: true } : undefined },
+    ], width);
+    lines.push(row.cursor ? line.map((segment) => ({ text: segment.text, style: { ...segment.style, inverse: true } })) : line);
+  }
+  while (lines.length < height) lines.push(fitLine([], width));
+  return {
+    header: { rect: layout.header, lines: [fitLine([{ text: model.title, style: { bold: true } }], layout.header.width)] },
+    overview: { rect: layout.overview, title: ' runs, worst first (enter opens one) ', lines: lines.slice(0, height) },
+    footer: { rect: layout.footer, lines: [fitLine([{ text: model.footer, style: { fg: 'gray' } }], layout.footer.width)] },
+  };
+}
