@@ -36,6 +36,8 @@ export interface OpenLineSourceOptions extends LineSourceOptions {
   /** While following, check the file this often regardless of change events (ms). Default 1000,
    * or pollMs when polling. */
   readonly statIntervalMs?: number;
+  /** Shortest gap between two `progress` events (ms). Default 100 (at most 10 a second). */
+  readonly progressEveryMs?: number;
 }
 
 /** Shortest gap between two `progress` events (ms): at most 10 a second. */
@@ -55,9 +57,10 @@ export function openLineSource(options: OpenLineSourceOptions): LineSource {
   if (!Number.isInteger(max) || max < 1) {
     throw new UsageError(`the line length limit must be a whole number of bytes >= 1, got ${max}`, 'for example 1048576 (1 MiB)');
   }
-  for (const [name, value] of [['poll interval', options.pollMs], ['stat interval', options.statIntervalMs]] as const) {
-    if (value !== undefined && (!Number.isFinite(value) || value <= 0)) {
-      throw new UsageError(`the ${name} must be a positive number of milliseconds, got ${value}`, 'for example 1000');
+  const intervals = [['poll interval', options.pollMs, 1], ['stat interval', options.statIntervalMs, 1], ['progress interval', options.progressEveryMs, 0]] as const;
+  for (const [name, value, least] of intervals) {
+    if (value !== undefined && (!Number.isFinite(value) || value < least)) {
+      throw new UsageError(`the ${name} must be ${least === 0 ? 'zero or more' : 'a positive number of'} milliseconds, got ${value}`, 'for example 1000');
     }
   }
   return new LogLineSource(options, max);
@@ -76,14 +79,15 @@ class ProgressReporter {
   private lastAt: number;
   private emitted = false;
 
-  constructor(private readonly total: number, private readonly event: (event: SourceEvent) => void) {
+  constructor(private readonly total: number, private readonly everyMs: number,
+    private readonly event: (event: SourceEvent) => void) {
     this.lastAt = Date.now();
   }
 
   add(bytes: number): void {
     this.done += bytes;
     const now = Date.now();
-    if (now - this.lastAt >= PROGRESS_EVERY_MS) {
+    if (now - this.lastAt >= this.everyMs) {
       this.lastAt = now;
       this.emitted = true;
       this.event({ type: 'progress', bytesRead: this.done, totalBytes: Math.max(this.total, this.done) });
@@ -128,7 +132,7 @@ class LogLineSource implements LineSource {
     if (this.paths[0] === '-') {
       await this.readStdin(sink);
     } else {
-      const progress = new ProgressReporter(await this.totalSize(), (event) => sink.onEvent(event));
+      const progress = new ProgressReporter(await this.totalSize(), this.options.progressEveryMs ?? PROGRESS_EVERY_MS, (event) => sink.onEvent(event));
       for (let index = 0; index < this.paths.length && !this.closing; index += 1) {
         const last = index === this.paths.length - 1;
         if (this.options.follow && last) await this.followFile(this.paths[index], index, sink, progress);
