@@ -1,0 +1,341 @@
+/**
+ * Compiles a validated parser spec into a `RecordParser` factory. Patterns are compiled once; each
+ * line then costs a few literal pre-filter checks, at most the regular expressions whose literal is
+ * present, number lexing, and the record itself.
+ */
+import type { LogRecord, SeriesInfo, SeriesKind } from './log-record.js';
+import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
+import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
+import { groupNames, UserPattern } from './user-pattern.js';
+import { globMatcher } from './glob-matcher.js';
+import { lexNumber } from './lex-number.js';
+import { scanKeyValues } from './scan-key-values.js';
+import { splitFields } from './split-fields.js';
+import { RecordAssembler } from './record-assembler.js';
+
+export type RecordParserFactory = (onRecord: RecordSink) => RecordParser;
+
+/** Compile once; the factory creates independent parsers (one per run). */
+export function compileSpec(spec: ParserSpec, overrides: KindOverrides): RecordParserFactory {
+  const plan = planSpec(spec, overrides);
+  return (onRecord) => new SpecParser(plan, onRecord);
+}
+
+interface CompiledGroup { readonly group: string; readonly series: string; readonly def: GroupSeries }
+
+interface CompiledRule {
+  readonly type: 'match' | 'pairs' | 'keyValues';
+  readonly pattern?: UserPattern;
+  readonly startsRecord: boolean;
+  readonly counters: readonly CounterName[];
+  readonly groups: readonly CompiledGroup[];
+  readonly nameGroup: string;
+  readonly valueGroup: string;
+  readonly unitGroup?: string;
+  readonly repeat: boolean;
+  readonly kind?: SeriesKind;
+  readonly assign: string;
+  readonly contains?: string;
+}
+
+interface Plan {
+  readonly spec: ParserSpec;
+  readonly ignore: readonly UserPattern[];
+  readonly failure: readonly UserPattern[];
+  readonly rules: readonly CompiledRule[];
+  readonly blocks: boolean;
+  readonly counterOf: ReadonlyMap<string, CounterName>;
+  readonly kindOf: (name: string, ruleKind: SeriesKind | undefined) => SeriesKind;
+  readonly tableHeader?: UserPattern;
+  readonly separator: TableSeparator;
+  readonly jsonKeys?: ReadonlySet<string>;
+}
+
+function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
+  const isResidual = globMatcher(overrides.residual);
+  const isQuantity = globMatcher(overrides.quantity);
+  const kindRules = (spec.kinds ?? []).map((rule) => ({ test: globMatcher([rule.names]), kind: rule.kind }));
+  const kindOf = (name: string, ruleKind: SeriesKind | undefined): SeriesKind => {
+    if (isResidual(name)) return 'residual';
+    if (isQuantity(name)) return 'quantity';
+    const declared = spec.series?.[name]?.kind;
+    if (declared !== undefined) return declared;
+    if (ruleKind !== undefined) return ruleKind;
+    for (const rule of kindRules) if (rule.test(name)) return rule.kind;
+    return spec.defaultKind ?? 'quantity';
+  };
+  const counterOf = new Map<string, CounterName>();
+  for (const counter of COUNTER_NAMES) {
+    const name = spec.counters?.[counter];
+    if (name !== undefined) counterOf.set(name, counter);
+  }
+  const rules = (spec.lines?.rules ?? []).map(compileRule);
+  return {
+    spec,
+    ignore: (spec.ignore ?? []).map((p) => new UserPattern(p)),
+    failure: (spec.failure ?? []).map((p) => new UserPattern(p)),
+    rules,
+    blocks: rules.some((rule) => rule.startsRecord),
+    counterOf,
+    kindOf,
+    tableHeader: spec.table ? new UserPattern(spec.table.header, spec.table.contains) : undefined,
+    separator: spec.table?.separator ?? 'whitespace',
+    jsonKeys: spec.jsonl?.keys ? new Set(spec.jsonl.keys) : undefined,
+  };
+}
+
+function compileRule(rule: LineRule): CompiledRule {
+  const startsRecord = rule.startsRecord ?? false;
+  if ('keyValues' in rule) {
+    return {
+      type: 'keyValues', startsRecord, counters: [], groups: [], nameGroup: '', valueGroup: '', repeat: true,
+      kind: rule.keyValues.kind, assign: rule.keyValues.assign ?? '=', contains: rule.contains,
+    };
+  }
+  const names = groupNames(rule.match);
+  const counters = COUNTER_NAMES.filter((c) => names.includes(c));
+  if ('pairs' in rule) {
+    const repeat = rule.pairs.repeat ?? false;
+    return {
+      type: 'pairs', pattern: new UserPattern(rule.match, rule.contains, repeat), startsRecord, counters, groups: [],
+      nameGroup: rule.pairs.nameGroup ?? 'name', valueGroup: rule.pairs.valueGroup ?? 'value', unitGroup: rule.pairs.unitGroup,
+      repeat, kind: rule.pairs.kind, assign: '',
+    };
+  }
+  const values = rule.values ?? {};
+  const groups: CompiledGroup[] = [];
+  for (const group of names) {
+    if ((COUNTER_NAMES as readonly string[]).includes(group) && !(group in values)) continue;
+    const raw = values[group];
+    const def: GroupSeries = typeof raw === 'string' ? { series: raw } : raw ?? {};
+    groups.push({ group, series: def.series ?? group, def });
+  }
+  return {
+    type: 'match', pattern: new UserPattern(rule.match, rule.contains), startsRecord, counters, groups,
+    nameGroup: '', valueGroup: '', repeat: false, assign: '',
+  };
+}
+
+class SpecParser implements RecordParser {
+  readonly id: string;
+  private readonly assembler: RecordAssembler;
+  private readonly info = new Map<string, SeriesInfo>();
+  private columns: string[] | null = null;
+  private columnCounters: (CounterName | undefined)[] = [];
+  private readonly fields: string[] = [];
+  private readonly lexed: number[] = [];
+  private pairKind: SeriesKind | undefined;
+  private pairsSeen = 0;
+  private readonly onPair = (name: string, valueText: string): void => this.addPair(name, valueText);
+
+  constructor(private readonly plan: Plan, sink: RecordSink) {
+    this.id = plan.spec.id;
+    this.assembler = new RecordAssembler(sink, plan.spec.counters?.step === undefined);
+  }
+
+  pushLine(line: string): void {
+    const assembler = this.assembler;
+    assembler.lines++;
+    if (line.length === 0) return;
+    const plan = this.plan;
+    for (const pattern of plan.ignore) if (pattern.test(line)) return;
+    for (const pattern of plan.failure) {
+      if (pattern.test(line)) { assembler.fail(line.trim()); return; }
+    }
+    let matched: boolean;
+    if (plan.rules.length > 0) matched = this.pushRuleLine(line);
+    else if (plan.tableHeader !== undefined) matched = this.pushTableLine(line);
+    else matched = this.pushJsonLine(line);
+    if (!matched) assembler.noteUnmatched(line);
+  }
+
+  private pushRuleLine(line: string): boolean {
+    const assembler = this.assembler;
+    let matched = false;
+    for (const rule of this.plan.rules) {
+      if (rule.type === 'keyValues') {
+        if (rule.contains !== undefined && !line.includes(rule.contains)) continue;
+        if (rule.startsRecord) assembler.close();
+        this.pairKind = rule.kind;
+        this.pairsSeen = 0;
+        scanKeyValues(line, rule.assign, this.onPair);
+        if (this.pairsSeen > 0) matched = true;
+        continue;
+      }
+      const pattern = rule.pattern as UserPattern;
+      const match = pattern.exec(line);
+      if (match === null) continue;
+      matched = true;
+      if (rule.startsRecord) assembler.close();
+      const groups = match.groups;
+      if (groups !== undefined) {
+        for (const counter of rule.counters) {
+          const text = groups[counter];
+          if (text === undefined) continue;
+          const value = lexNumber(text);
+          if (value !== undefined) assembler.setCounter(counter, value);
+        }
+      }
+      if (rule.type === 'match') {
+        if (groups === undefined) { assembler.current(); continue; }
+        const values = assembler.current();
+        for (const g of rule.groups) {
+          const text = groups[g.group];
+          if (text === undefined) continue;
+          const value = lexNumber(text);
+          if (value === undefined) continue;
+          this.register(g.series, g.def.kind, g.def.unit, g.def.label);
+          values.set(g.series, value);
+        }
+      } else {
+        this.pairKind = rule.kind;
+        this.addMatchedPair(rule, match);
+        if (rule.repeat) {
+          const regex = pattern.regex;
+          let next: RegExpExecArray | null;
+          while (regex.lastIndex < line.length && (next = regex.exec(line.length > 65_536 ? line.slice(0, 65_536) : line)) !== null) {
+            if (next[0].length === 0) regex.lastIndex++;
+            this.addMatchedPair(rule, next);
+          }
+        }
+      }
+    }
+    if (!this.plan.blocks) assembler.close();
+    return matched;
+  }
+
+  private addMatchedPair(rule: CompiledRule, match: RegExpExecArray): void {
+    const groups = match.groups;
+    if (groups === undefined) return;
+    const name = groups[rule.nameGroup];
+    const valueText = groups[rule.valueGroup];
+    if (name === undefined || valueText === undefined) return;
+    const unit = rule.unitGroup !== undefined ? groups[rule.unitGroup] : undefined;
+    this.addPair(name, valueText, unit);
+  }
+
+  private addPair(name: string, valueText: string, unit?: string): void {
+    const value = lexNumber(valueText);
+    if (value === undefined) return;
+    this.pairsSeen++;
+    const counter = this.plan.counterOf.size > 0 ? this.plan.counterOf.get(name) : undefined;
+    if (counter !== undefined) { this.assembler.setCounter(counter, value); return; }
+    if (!this.info.has(name) || (unit !== undefined && unit !== '' && this.info.get(name)?.unit === undefined)) {
+      this.register(name, this.pairKind, unit === '' ? undefined : unit, undefined, true);
+    }
+    this.assembler.current().set(name, value);
+  }
+
+  private register(name: string, ruleKind: SeriesKind | undefined, unit?: string, label?: string, replace = false): void {
+    if (!replace && this.info.has(name)) return;
+    const declared = this.plan.spec.series?.[name];
+    const info: { -readonly [K in keyof SeriesInfo]: SeriesInfo[K] } = { name, kind: this.plan.kindOf(name, ruleKind) };
+    const finalUnit = unit ?? declared?.unit;
+    if (finalUnit !== undefined) info.unit = finalUnit;
+    const finalLabel = declared?.label ?? label;
+    if (finalLabel !== undefined) info.label = finalLabel;
+    this.info.set(name, info);
+  }
+
+  private pushTableLine(line: string): boolean {
+    const plan = this.plan;
+    const header = plan.tableHeader as UserPattern;
+    if (header.test(line)) {
+      const count = splitFields(line, plan.separator, this.fields);
+      this.columns = this.fields.slice(0, count);
+      this.columnCounters = this.columns.map((name) => plan.counterOf.get(name));
+      return true;
+    }
+    const columns = this.columns;
+    if (columns === null) return false;
+    const count = splitFields(line, plan.separator, this.fields);
+    if (count !== columns.length) return false;
+    const fields = this.fields;
+    const lexed = this.lexed;
+    let numeric = 0;
+    let filled = 0;
+    for (let i = 0; i < count; i++) {
+      const text = fields[i];
+      if (text.length === 0) { lexed[i] = Number.NaN; continue; }
+      filled++;
+      const value = lexNumber(text);
+      if (value === undefined) {
+        if (this.columnCounters[i] === 'iteration') return false;
+        lexed[i] = Number.NaN;
+        fields[i] = '';
+      } else {
+        numeric++;
+        lexed[i] = value;
+      }
+    }
+    if (numeric === 0 || numeric * 2 <= filled) return false;
+    const assembler = this.assembler;
+    const values = assembler.current();
+    for (let i = 0; i < count; i++) {
+      if (fields[i].length === 0) continue;
+      const counter = this.columnCounters[i];
+      if (counter !== undefined) { assembler.setCounter(counter, lexed[i]); continue; }
+      const name = columns[i];
+      if (!this.info.has(name)) this.register(name, undefined);
+      values.set(name, lexed[i]);
+    }
+    assembler.close();
+    return true;
+  }
+
+  private pushJsonLine(line: string): boolean {
+    let start = 0;
+    while (start < line.length && (line.charCodeAt(start) === 32 || line.charCodeAt(start) === 9)) start++;
+    if (line.charCodeAt(start) !== 123 /* { */) return false;
+    let parsed: unknown;
+    try {
+      parsed = JSON.parse(line);
+    } catch {
+      return false;
+    }
+    if (parsed === null || typeof parsed !== 'object' || Array.isArray(parsed)) return false;
+    const assembler = this.assembler;
+    const keys = this.plan.jsonKeys;
+    const counterOf = this.plan.counterOf;
+    let found = 0;
+    for (const [key, raw] of Object.entries(parsed as Record<string, unknown>)) {
+      let value: number | undefined;
+      if (typeof raw === 'number') value = raw;
+      else if (typeof raw === 'string' && raw.length < 24) {
+        // Strings count only when they spell a non-finite value ("NaN", "Infinity", "***"...).
+        const lexed = lexNumber(raw);
+        if (lexed !== undefined && !Number.isFinite(lexed)) value = lexed;
+      }
+      if (value === undefined) continue;
+      const counter = counterOf.get(key);
+      if (counter !== undefined) { assembler.setCounter(counter, value); found++; continue; }
+      if (keys !== undefined && !keys.has(key)) continue;
+      if (!this.info.has(key)) this.register(key, undefined);
+      assembler.current().set(key, value);
+      found++;
+    }
+    if (found === 0) return false;
+    assembler.close();
+    return true;
+  }
+
+  finish(): void {
+    this.assembler.close();
+  }
+
+  noteRestart(): void {
+    this.assembler.close();
+    this.assembler.noteRestart();
+    this.columns = null;
+  }
+
+  seriesInfo(): ReadonlyMap<string, SeriesInfo> {
+    return this.info;
+  }
+
+  stats(): ParseStats {
+    return this.assembler.stats();
+  }
+}
+
+export type { LogRecord };

@@ -1,0 +1,160 @@
+/**
+ * Turns extracted values and counters into records: opens and closes records, fills in the
+ * iteration counter when the log has none, carries time step and physical time forward, detects
+ * restarts (a counter going back), and keeps the parse statistics. Shared by every compiled parser.
+ */
+import type { LogRecord } from './log-record.js';
+import type { ParseStats, RecordSink } from './record-parser.js';
+
+const SAMPLE_SIZE = 10;
+const SAMPLE_LINE_LENGTH = 160;
+const FAILURE_TEXT_LENGTH = 200;
+
+export class RecordAssembler {
+  private values: Map<string, number> | null = null;
+  private iteration: number | undefined;
+  private step: number | undefined;
+  private time: number | undefined;
+  private inner: number | undefined;
+  private failureText: string | undefined;
+  private counterCaptured = false;
+
+  private stickyStep: number | undefined;
+  private stickyTime: number | undefined;
+  /** When the spec gives time but no step index: steps are counted as time changes. */
+  private countedStep = 0;
+  private countedStepTime: number | undefined;
+
+  private lastIteration: number | undefined;
+  private lastStep: number | undefined;
+  private lastInner: number | undefined;
+  private lastTime: number | undefined;
+  private restartPending = false;
+
+  lines = 0;
+  unmatched = 0;
+  records = 0;
+  restarts = 0;
+  readonly unmatchedSample: string[] = [];
+
+  constructor(private readonly sink: RecordSink, private readonly stepFromTime: boolean) {}
+
+  /** The record being built (opened on demand). */
+  current(): Map<string, number> {
+    if (this.values === null) this.values = new Map();
+    return this.values;
+  }
+
+  isOpen(): boolean {
+    return this.values !== null;
+  }
+
+  setCounter(name: 'iteration' | 'step' | 'time' | 'inner', value: number): void {
+    this.current();
+    this.counterCaptured = true;
+    switch (name) {
+      case 'iteration': this.iteration = value; break;
+      case 'step': this.step = value; this.stickyStep = value; break;
+      case 'time': this.time = value; this.stickyTime = value; break;
+      case 'inner': this.inner = value; break;
+    }
+  }
+
+  /** Close the open record: emit it when it holds values or a failure, else keep only its counters
+   * (a line that sets the time step for the lines after it). */
+  close(): void {
+    const values = this.values;
+    if (values === null) return;
+    this.values = null;
+    if (values.size === 0 && this.failureText === undefined) {
+      this.clearCounters();
+      return;
+    }
+    const failureOnly = values.size === 0;
+    let step = this.step ?? this.stickyStep;
+    const time = this.time ?? this.stickyTime;
+    if (step === undefined && time !== undefined && this.stepFromTime) {
+      if (this.countedStepTime !== time) { this.countedStep++; this.countedStepTime = time; }
+      step = this.countedStep;
+    }
+    let inner = this.inner;
+    if (inner === undefined && step !== undefined) {
+      inner = step === this.lastStep && this.lastInner !== undefined ? this.lastInner + 1 : 1;
+    }
+    let restart = this.restartPending;
+    if (!failureOnly && this.records > 0) {
+      if (this.iteration !== undefined && this.lastIteration !== undefined) {
+        if (this.iteration < this.lastIteration) restart = true;
+      } else if (step !== undefined && this.lastStep !== undefined) {
+        if (step < this.lastStep || (step === this.lastStep && this.inner !== undefined && this.lastInner !== undefined && this.inner < this.lastInner)) restart = true;
+      } else if (time !== undefined && this.lastTime !== undefined && time < this.lastTime) {
+        restart = true;
+      }
+    }
+    let iteration = this.iteration;
+    if (iteration === undefined) iteration = failureOnly && this.lastIteration !== undefined ? this.lastIteration : this.records + 1;
+    const record: { -readonly [K in keyof LogRecord]: LogRecord[K] } = { iteration, values };
+    if (step !== undefined) record.timeStep = step;
+    if (inner !== undefined) record.inner = inner;
+    if (time !== undefined) record.time = time;
+    if (restart) {
+      record.restart = true;
+      this.restarts++;
+      this.restartPending = false;
+    }
+    if (this.failureText !== undefined) record.failure = this.failureText;
+    if (!failureOnly) {
+      this.lastIteration = iteration;
+      this.lastStep = step;
+      this.lastInner = inner;
+      this.lastTime = time;
+    }
+    this.clearCounters();
+    this.records++;
+    this.sink(record);
+  }
+
+  private clearCounters(): void {
+    this.iteration = undefined;
+    this.step = undefined;
+    this.time = undefined;
+    this.inner = undefined;
+    this.failureText = undefined;
+    this.counterCaptured = false;
+  }
+
+  /** A line marking a crash: attach its text to the open record (or a new empty one) and emit. */
+  fail(line: string): void {
+    this.current();
+    this.failureText = line.length > FAILURE_TEXT_LENGTH ? `${line.slice(0, FAILURE_TEXT_LENGTH - 1)}…` : line;
+    this.close();
+  }
+
+  noteRestart(): void {
+    this.restartPending = true;
+    this.stickyStep = undefined;
+    this.stickyTime = undefined;
+  }
+
+  noteUnmatched(line: string): void {
+    if (line.trim().length === 0) return;
+    this.unmatched++;
+    if (this.unmatchedSample.length < SAMPLE_SIZE) {
+      this.unmatchedSample.push(line.length > SAMPLE_LINE_LENGTH ? `${line.slice(0, SAMPLE_LINE_LENGTH - 1)}…` : line);
+    }
+  }
+
+  hasCounters(): boolean {
+    return this.counterCaptured;
+  }
+
+  stats(): ParseStats {
+    return {
+      lines: this.lines,
+      unmatched: this.unmatched,
+      unmatchedSample: [...this.unmatchedSample],
+      records: this.records,
+      restarts: this.restarts,
+    };
+  }
+}
