@@ -1,0 +1,61 @@
+/**
+ * Plain-words number formatting for reasons, advice and timeline texts (one style everywhere):
+ * counts with a space every three digits ("2 300"), residuals in short scientific form ("2.1e-4"),
+ * a mean with its half-width rounded to the half-width's first significant digit ("0.3312 ± 0.0004").
+ */
+
+/** Whole number with a space between groups of three digits: 4210 → "4 210". */
+export function formatCount(value: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  const rounded = Math.round(value);
+  const digits = String(Math.abs(rounded)).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
+  return rounded < 0 ? `-${digits}` : digits;
+}
+
+/** A count rounded to two significant figures for estimates: 2 287 → "2 300". */
+export function formatEstimate(value: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (Math.abs(value) < 100) return formatCount(value);
+  const magnitude = 10 ** (Math.floor(Math.log10(Math.abs(value))) - 1);
+  return formatCount(Math.round(value / magnitude) * magnitude);
+}
+
+/** Short scientific form: 0.000213 → "2.1e-4"; non-finite values by name. */
+export function formatResidual(value: number): string {
+  if (Number.isNaN(value)) return 'NaN';
+  if (!Number.isFinite(value)) return value > 0 ? 'Infinity' : '-Infinity';
+  if (value === 0) return '0';
+  const [mantissa, exponent] = value.toExponential(1).split('e');
+  return `${mantissa}e${Number(exponent)}`;
+}
+
+/** Decades with one decimal: 3.24 → "3.2". */
+export function formatDecades(value: number): string {
+  return (Math.round(value * 10) / 10).toFixed(1).replace(/\.0$/, '');
+}
+
+/** A value to four significant figures ("0.3312", "1.204e+5" when very large or small). */
+export function formatValue(value: number): string {
+  if (!Number.isFinite(value)) return formatResidual(value);
+  if (value === 0) return '0';
+  const magnitude = Math.abs(value);
+  if (magnitude >= 1e6 || magnitude < 1e-4) return formatResidual(value).replace(/e/, 'e');
+  return String(Number(value.toPrecision(4)));
+}
+
+/** Mean ± half-width, both rounded at the half-width's first significant digit. */
+export function formatMeanInterval(mean: number, halfWidth: number): string {
+  if (!Number.isFinite(mean) || !Number.isFinite(halfWidth) || halfWidth <= 0) return formatValue(mean);
+  const place = Math.floor(Math.log10(halfWidth));
+  if (place < -10 || place > 10) return `${mean.toPrecision(4)} ± ${halfWidth.toPrecision(1)}`;
+  const decimals = Math.max(0, -place);
+  const unit = 10 ** place;
+  const roundedHalf = Math.max(unit, Math.round(halfWidth / unit) * unit);
+  const roundedMean = Math.round(mean / unit) * unit;
+  return `${roundedMean.toFixed(decimals)} ± ${roundedHalf.toFixed(decimals)}`;
+}
+
+/** A fraction as a percentage with two significant figures: 0.00123 → "0.12 %". */
+export function formatPercent(fraction: number): string {
+  return `${Number((fraction * 100).toPrecision(2))} %`;
+}

@@ -1,0 +1,159 @@
+/**
+ * The state of one monitored quantity: settled (state `converged`) with its mean and 95 % interval,
+ * still converging, oscillating (steady runs), failed or undecided.
+ *
+ * Method, on the samples after start-up (at most the newest 16 384, so the cost stays bounded):
+ * 1. MSER-5 truncation (mser-truncation.ts) removes the initial transient; a minimum in the second
+ *    half means no steady part yet.
+ * 2. Batch means with a t interval (batch-means-interval.ts) give the mean and its half-width.
+ * 3. Drift check: the means of the first and second halves of the batches are compared with a t test
+ *    at 99 % (the idea of Geweke 1992, "Evaluating the accuracy of sampling-based approaches to the
+ *    calculation of posterior moments", Bayesian Statistics 4); a difference larger than the test
+ *    allows and larger than the tolerance means the retained part still drifts.
+ * 4. Monotone geometric convergence (geometric-iteration-error.ts, Ferziger & Perić 2002 §5.7): when
+ *    it applies, the estimated remaining error must also be within the tolerance.
+ * 5. When the quantity visibly varies (standard deviation above the tolerance), a cycle test
+ *    (detect-oscillation.ts): in a steady run a persistent cycle larger than the tolerance is
+ *    `oscillating`; in a transient run a periodic state is the goal, judged by the mean over whole
+ *    periods with an interval from whole-period batches.
+ * Settled means: relative half-width ≤ qoiTol, no drift, no significant iteration error left.
+ * Tolerances are relative to |mean| (or to 1 when the mean is exactly 0).
+ * Cost: O(n) for n ≤ 16 384 samples, plus the cycle test O(2048²/3) only when the quantity varies.
+ */
+import type { SeriesDiagnosis, State } from './diagnosis.js';
+import type { SeriesInfo } from '../parse/log-record.js';
+import { mserTruncation } from './mser-truncation.js';
+import { batchMeansInterval, intervalOfMeans, studentTQuantile } from './batch-means-interval.js';
+import { geometricIterationError } from './geometric-iteration-error.js';
+import { detectOscillation } from './detect-oscillation.js';
+import { formatCount, formatEstimate, formatMeanInterval, formatPercent, formatResidual, formatValue } from './format-figures.js';
+
+export const QUANTITY_SPAN = 16384;
+/** Fewest samples after start-up before a quantity is judged. */
+export const QUANTITY_MIN_SAMPLES = 50;
+const GEOMETRIC_POINTS = 32;
+const CYCLE_POINTS = 2048;
+
+export interface QuantitySamples {
+  readonly info: SeriesInfo;
+  /** Iteration of each sample (for a transient run: of the last inner iteration of each step). */
+  readonly iterations: Float64Array;
+  readonly values: Float64Array;
+  /** Last raw value of the series. */
+  readonly last: number;
+  /** First non-finite sample since the last restart: its iteration and value (NaN when none). */
+  readonly firstNonFinite: number;
+  readonly nonFiniteValue: number;
+  /** Iteration from which samples are judged (after start-up). */
+  readonly judgedFromIteration: number;
+  readonly transient: boolean;
+  /** Physical time of each sample (transient runs), when known. */
+  readonly times?: Float64Array;
+}
+
+export function judgeQuantity(samples: QuantitySamples, qoiTol: number): SeriesDiagnosis {
+  const { info } = samples;
+  const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last };
+  const with_ = (state: State, reason: string, extra: Partial<SeriesDiagnosis> = {}): SeriesDiagnosis => ({ ...base, state, reason, ...extra });
+  if (!Number.isNaN(samples.firstNonFinite)) {
+    return with_('failed', `${info.name} became ${formatResidual(samples.nonFiniteValue)} at it ${formatCount(samples.firstNonFinite)}`);
+  }
+  const n = samples.values.length;
+  if (n < QUANTITY_MIN_SAMPLES) {
+    return with_('undecided', n === 0
+      ? `start-up: not judged before it ${formatCount(samples.judgedFromIteration)}`
+      : `too few ${samples.transient ? 'time steps' : 'iterations'} after start-up (${n} of ${QUANTITY_MIN_SAMPLES})`);
+  }
+  const from = Math.max(0, n - QUANTITY_SPAN);
+  const values = samples.values;
+  const iterations = samples.iterations;
+  const lastIteration = iterations[n - 1];
+  const unitWord = samples.transient ? 'time steps' : 'iterations';
+
+  const mser = mserTruncation(values, from, n);
+  if (mser === null || !mser.settled) {
+    return with_('converging', `${info.name} still moving: no steady part yet`, geometricFields(values, n, qoiTol));
+  }
+  const keptFrom = from + mser.truncatePoints;
+  const settledFrom = iterations[keptFrom];
+  const interval = batchMeansInterval(values, keptFrom, n);
+  if (interval === null) return with_('undecided', `${info.name}: too few samples after the start-up transient`);
+  const scale = interval.mean !== 0 ? Math.abs(interval.mean) : 1;
+  const allowed = qoiTol * scale;
+  let sd = 0;
+  for (let i = keptFrom; i < n; i++) sd += (values[i] - interval.mean) ** 2;
+  sd = Math.sqrt(sd / Math.max(1, n - keptFrom - 1));
+
+  // A visible cycle: in a steady run a fault; in a transient run the state to average over.
+  if (sd > allowed && n - keptFrom >= 48) {
+    const cycleFrom = Math.max(keptFrom, n - CYCLE_POINTS);
+    const cycle = detectOscillation(values, cycleFrom, n);
+    if (cycle !== null) {
+      const spacing = (lastIteration - iterations[cycleFrom]) / Math.max(1, n - 1 - cycleFrom);
+      const period = cycle.period * spacing;
+      const amplitudeRelative = cycle.amplitude / scale;
+      const whole = wholePeriodInterval(values, cycleFrom, n, cycle.period);
+      const mean = whole?.mean ?? cycle.meanOverPeriods;
+      const halfWidth = whole?.halfWidth;
+      const periodic = { period, amplitudeRelative, mean, halfWidth, settledFrom };
+      if (!samples.transient && amplitudeRelative > qoiTol) {
+        return with_('oscillating', `${info.name} cycles every ${formatCount(period)} iterations by ±${formatPercent(amplitudeRelative)} around ${formatValue(mean)}`, periodic);
+      }
+      if (samples.transient && halfWidth !== undefined) {
+        if (halfWidth <= qoiTol * (mean !== 0 ? Math.abs(mean) : 1)) {
+          return with_('converged', `${info.name} periodic (every ${formatCount(period)} iterations), mean ${formatMeanInterval(mean, halfWidth)} over whole periods`, periodic);
+        }
+        return with_('converging', `${info.name} periodic; the mean over whole periods is ${formatMeanInterval(mean, halfWidth)}, not yet within ${formatPercent(qoiTol)}`, periodic);
+      }
+    }
+  }
+
+  const fields = { mean: interval.mean, halfWidth: interval.halfWidth, settledFrom };
+  const relative = interval.halfWidth / scale;
+  const geometric = geometricFields(values, n, qoiTol);
+  if (geometric.iterationError !== undefined && Math.abs(geometric.iterationError) > allowed) {
+    return with_('converging', `${info.name} still approaching ${formatValue(geometric.limit ?? Number.NaN)} geometrically; about ${formatValue(Math.abs(geometric.iterationError))} to go`, { ...fields, ...geometric });
+  }
+  const drift = driftOf(values, keptFrom, n);
+  if (drift !== null && Math.abs(drift.difference) > drift.allowed && Math.abs(drift.difference) > allowed) {
+    return with_('converging', `${info.name} still drifting by ${formatPercent(Math.abs(drift.difference) / scale)} across the last ${formatCount(lastIteration - settledFrom)} ${unitWord}`, { ...fields, ...geometric });
+  }
+  if (relative > qoiTol) {
+    const more = (n - keptFrom) * ((relative / qoiTol) ** 2 - 1);
+    return with_('converging', `${info.name} mean ${formatMeanInterval(interval.mean, interval.halfWidth)}: ±${formatPercent(relative)}, not yet within ${formatPercent(qoiTol)}; about ${formatEstimate(more)} more ${unitWord}`, { ...fields, ...geometric });
+  }
+  return with_('converged', `${info.name} settled at ${formatMeanInterval(interval.mean, interval.halfWidth)} for ${formatCount(lastIteration - settledFrom)} ${unitWord}`, { ...fields, ...geometric });
+}
+
+function geometricFields(values: Float64Array, n: number, _qoiTol: number): { iterationError?: number; limit?: number } {
+  const estimate = geometricIterationError(values, Math.max(0, n - GEOMETRIC_POINTS), n);
+  return estimate === null ? {} : { iterationError: estimate.error, limit: estimate.limit };
+}
+
+/** Mean and interval from batches of whole periods (at least 4 periods; at most 30 batches). */
+function wholePeriodInterval(values: Float64Array, from: number, to: number, period: number): { mean: number; halfWidth: number } | null {
+  const periods = Math.floor((to - from) / period);
+  if (periods < 4) return null;
+  const batches = Math.min(30, periods);
+  const perBatch = Math.floor(periods / batches);
+  const means = new Float64Array(batches);
+  for (let b = 0; b < batches; b++) {
+    const start = Math.round(to - (batches - b) * perBatch * period);
+    const end = Math.round(to - (batches - b - 1) * perBatch * period);
+    let sum = 0;
+    for (let i = start; i < end; i++) sum += values[i];
+    means[b] = sum / (end - start);
+  }
+  const interval = intervalOfMeans(means, perBatch);
+  return interval === null ? null : { mean: interval.mean, halfWidth: interval.halfWidth };
+}
+
+/** Difference of the mean of the second half of the retained samples from the first, and what a
+ * two-sample t test at 99 % allows (10 batches per half). */
+function driftOf(values: Float64Array, from: number, to: number): { difference: number; allowed: number } | null {
+  const first = batchMeansInterval(values, from, from + ((to - from) >> 1), 10, 0.99);
+  const second = batchMeansInterval(values, to - ((to - from) >> 1), to, 10, 0.99);
+  if (first === null || second === null) return null;
+  const se = Math.sqrt((first.batchSd ** 2 + second.batchSd ** 2) / 10);
+  return { difference: second.mean - first.mean, allowed: studentTQuantile(0.995, 18) * se };
+}

@@ -1,0 +1,152 @@
+/**
+ * The state of one residual series (steady iterations): trend, rate, time to target, drop from peak,
+ * and one of converged / converging / stalled / oscillating / diverging / failed / undecided.
+ *
+ * Method: the trend is the Theil–Sen slope of log10(residual) against iteration over the trailing
+ * window (see theil-sen-slope.ts); rho = 10^slope, orders per 1000 iterations = −1000·slope, iterations
+ * to the target = (log10 level − log10 r_now) / slope. "Now" is the median of the last five values, so a
+ * single spike moves neither the converged test nor the jump test. The level to reach is the peak of
+ * the segment minus `drop` decades, or the absolute target when one is set and is reached first.
+ * Rules, in order (thresholds are common practice, logged in DEVELOPERS.md):
+ * - failed: a non-finite value since the last restart;
+ * - undecided: inside the start-up iterations, or fewer than 5 points to judge;
+ * - converged: at or below the level;
+ * - diverging: now ≥ 3 decades above the window's lowest value (a jump), or the window's trend rises by
+ *   ≥ 1 decade (sustained growth);
+ * - converging: falling at a useful rate, i.e. the target is reached within 10 × the iterations judged
+ *   so far (at least 10 windows);
+ * - oscillating: once a whole window has been seen and the fall is not useful, a cycle in the ACF of
+ *   log10 r (detect-oscillation.ts), reported with its period and amplitude in decades;
+ * - stalled: a whole window seen, no useful fall, no cycle; otherwise still undecided.
+ * Cost: O(log n + m² log m) with m ≤ 48 Theil–Sen points, plus O(2048²/3) for the cycle test,
+ * which runs only when the residual is not falling usefully.
+ */
+import type { SeriesColumn } from '../series/series-column.js';
+import type { SeriesDiagnosis, State } from './diagnosis.js';
+import type { SeriesRule } from './resolve-series-criteria.js';
+import type { SegmentMemo } from './segment-tracker.js';
+import { firstIndexAtOrAfter, segmentStartIndex } from './segment-tracker.js';
+import { safeLog10 } from './safe-log10.js';
+import { theilSenSlope } from './theil-sen-slope.js';
+import { detectOscillation } from './detect-oscillation.js';
+import { formatCount, formatDecades, formatEstimate, formatResidual } from './format-figures.js';
+
+/** A rise of this many decades above the window's minimum is a divergence jump (common practice). */
+export const JUMP_DECADES = 3;
+/** A window trend rising by this many decades is sustained growth. */
+export const GROWTH_DECADES = 1;
+/** A fall counts as useful while the target is within this many times the iterations judged so far. */
+export const USEFUL_FACTOR = 10;
+/** Most points given to the cycle test. */
+export const OSCILLATION_POINTS = 2048;
+
+export interface ResidualJudgeOptions {
+  readonly window: number;
+  readonly startup: number;
+}
+
+export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, options: ResidualJudgeOptions): SeriesDiagnosis {
+  const { info } = column;
+  const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
+  const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last };
+  const with_ = (state: State, reason: string, extra: Partial<SeriesDiagnosis> = {}): SeriesDiagnosis => ({ ...base, state, reason, ...extra });
+
+  if (column.length === 0) return with_('undecided', 'no values yet');
+  if (!Number.isNaN(memo.firstNonFinite)) {
+    return with_('failed', `${info.name} became ${formatResidual(memo.nonFiniteValue)} at it ${formatCount(memo.firstNonFinite)}`);
+  }
+  const segmentStart = segmentStartIndex(memo, column);
+  const end = column.length;
+  const lastIteration = column.iterations[end - 1];
+  const judgedFromIteration = memo.start + options.startup;
+  const judgedFrom = firstIndexAtOrAfter(column, segmentStart, end, judgedFromIteration);
+
+  const logs = (from: number, to: number): Float64Array => {
+    const out = new Float64Array(to - from);
+    for (let i = from; i < to; i++) out[i - from] = safeLog10(column.values[i]);
+    return out;
+  };
+  const recent = logs(Math.max(segmentStart, end - 5), end).sort();
+  const nowLog = recent[recent.length >> 1];
+  const peakLog = memo.peakLog;
+  const dropDecades = peakLog - nowLog;
+  let levelLog = peakLog - rule.drop;
+  if (rule.target !== undefined) levelLog = Math.max(levelLog, safeLog10(rule.target));
+  const target = 10 ** levelLog;
+  const common = { dropDecades, target };
+
+  if (end - judgedFrom < 5) {
+    return with_('undecided', `start-up: not judged before it ${formatCount(judgedFromIteration)}`, common);
+  }
+  if (nowLog <= levelLog) {
+    const why = rule.target !== undefined && nowLog <= safeLog10(rule.target) && dropDecades < rule.drop
+      ? `below the target ${formatResidual(rule.target)}`
+      : `${formatDecades(dropDecades)} decades below its peak`;
+    return with_('converged', `${info.name} ${why}`, { ...common, ...trendFields(column, Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1)), end, levelLog, nowLog, true) });
+  }
+
+  const windowFrom = Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1));
+  if (end - windowFrom < 5) return with_('undecided', `too few points in the last ${formatCount(options.window)} iterations`, common);
+  const trend = trendFields(column, windowFrom, end, levelLog, nowLog, false);
+  const slope = Math.log10(trend.rho);
+  const windowLogs = logs(windowFrom, end);
+  let minLog = Number.POSITIVE_INFINITY;
+  let minAt = windowFrom;
+  for (let i = 0; i < windowLogs.length; i++) {
+    if (windowLogs[i] < minLog) {
+      minLog = windowLogs[i];
+      minAt = windowFrom + i;
+    }
+  }
+  const rise = nowLog - minLog;
+  if (rise >= JUMP_DECADES) {
+    const span = lastIteration - column.iterations[minAt];
+    return with_('diverging', `${info.name} grew ${formatDecades(rise)} decades in ${formatCount(span)} iterations`, { ...common, ...trend });
+  }
+  const windowSpan = lastIteration - column.iterations[windowFrom];
+  const trendRise = slope * windowSpan;
+  if (trendRise >= GROWTH_DECADES && end - windowFrom >= 10) {
+    return with_('diverging', `${info.name} rising steadily: ${formatDecades(trendRise)} decades in ${formatCount(windowSpan)} iterations`, { ...common, ...trend });
+  }
+
+  const judgedSpan = lastIteration - column.iterations[judgedFrom];
+  const useful = slope < 0 && trend.eta !== undefined && trend.eta <= USEFUL_FACTOR * Math.max(judgedSpan, options.window);
+  if (useful) {
+    return with_('converging', `${info.name} falling ${formatDecades(trend.ordersPerKilo)} orders per 1000 iterations, about ${formatEstimate(trend.eta ?? Number.NaN)} to go`, { ...common, ...trend });
+  }
+  const windowSeen = judgedSpan >= options.window;
+  if (!windowSeen) {
+    return with_(slope < 0 ? 'converging' : 'undecided', `${info.name} ${slope < 0 ? 'falling slowly' : 'not falling yet'}; judged after ${formatCount(options.window)} iterations`, { ...common, ...trend });
+  }
+  const cycleFrom = Math.max(judgedFrom, end - Math.min(OSCILLATION_POINTS, Math.max(2 * (end - windowFrom), 256)));
+  const cycle = detectOscillation(logs(cycleFrom, end), 0, end - cycleFrom);
+  if (cycle !== null) {
+    const spacing = (lastIteration - column.iterations[cycleFrom]) / Math.max(1, end - 1 - cycleFrom);
+    const period = cycle.period * spacing;
+    return with_('oscillating', `${info.name} cycles every ${formatCount(period)} iterations by ±${formatDecades(cycle.amplitude)} decades without falling`,
+      { ...common, ...trend, period, amplitudeDecades: cycle.amplitude });
+  }
+  const flatFor = lastIteration - column.iterations[windowFrom];
+  const reason = slope < 0
+    ? `${info.name} falling too slowly: about ${formatEstimate(trend.eta ?? Number.NaN)} iterations to go at ${formatResidual(10 ** nowLog)}`
+    : `${info.name} flat at ${formatResidual(10 ** nowLog)} for ${formatCount(flatFor)} iterations`;
+  return with_('stalled', reason, { ...common, ...trend });
+}
+
+interface TrendFields {
+  readonly rho: number;
+  readonly ordersPerKilo: number;
+  readonly eta?: number;
+}
+
+function trendFields(column: SeriesColumn, from: number, to: number, levelLog: number, nowLog: number, reached: boolean): TrendFields {
+  const n = to - from;
+  if (n < 2) return { rho: Number.NaN, ordersPerKilo: Number.NaN };
+  const logs = new Float64Array(n);
+  for (let i = 0; i < n; i++) logs[i] = safeLog10(column.values[from + i]);
+  const slope = theilSenSlope(column.iterations.subarray(from, to), logs, 0, n);
+  const fields: TrendFields = { rho: 10 ** slope, ordersPerKilo: -1000 * slope };
+  if (reached) return { ...fields, eta: 0 };
+  if (slope < 0) return { ...fields, eta: (levelLog - nowLog) / slope };
+  return fields;
+}
