@@ -1,0 +1,74 @@
+/**
+ * The charts of a run's report, as SVG strings: all residuals on one log-axis chart (with the target
+ * and the restarts marked), and one linear chart per monitored quantity (with its settled mean and
+ * 95 % band from the iteration it settled). Reads the store's snapshot for the points and the
+ * diagnosis for the figures; decides nothing.
+ */
+import type { SeriesDiagnosis } from '../analysis/diagnosis.js';
+import type { SeriesColumn } from '../series/series-column.js';
+import type { ReportRun } from './report-input.js';
+import { renderLineChartSvg, type ChartBand, type ChartRule } from './svg-line-chart.js';
+import { formatNumber } from '../cli/format-number.js';
+
+export interface ReportChart {
+  readonly title: string;
+  /** One sentence for alternative text. */
+  readonly description: string;
+  readonly svg: string;
+}
+
+/** At most this many quantity charts per run (the table lists every quantity). */
+export const MAX_QUANTITY_CHARTS = 12;
+
+const seriesOf = (column: SeriesColumn) => ({ name: column.info.label ?? column.info.name, x: column.iterations, y: column.values, length: column.length });
+
+export function reportCharts(run: ReportRun, runIndex: number, width = 760): ReportChart[] {
+  const diagnoses = new Map(run.diagnosis.series.map((s) => [s.name, s]));
+  const kindOf = (c: SeriesColumn): string => diagnoses.get(c.info.name)?.kind ?? c.info.kind;
+  const restarts: ChartRule[] = run.snapshot.restarts.map((it) => ({ value: it, label: 'restart' }));
+  const charts: ReportChart[] = [];
+
+  const residuals = run.snapshot.series.filter((c) => kindOf(c) === 'residual' && c.length > 0);
+  if (residuals.length > 0) {
+    const targets = new Map<number, string[]>();
+    for (const c of residuals) {
+      const target = diagnoses.get(c.info.name)?.target;
+      if (target !== undefined && target > 0 && Number.isFinite(target)) targets.set(target, [...(targets.get(target) ?? []), c.info.name]);
+    }
+    const rules: ChartRule[] = [...targets].map(([value, names]) => ({
+      value, label: targets.size === 1 ? `target ${formatNumber(value, 2)}` : `target ${formatNumber(value, 2)} (${names.join(', ')})`,
+    }));
+    const title = `Residuals — ${run.log}`;
+    const description = `Residuals ${residuals.map((c) => c.info.name).join(', ')} against iteration on a logarithmic axis${rules.length ? ', with the target line' : ''}${restarts.length ? ` and ${restarts.length} restart${restarts.length === 1 ? '' : 's'} marked` : ''}.`;
+    charts.push({
+      title, description,
+      svg: renderLineChartSvg({
+        title, description, yScale: 'log', xLabel: 'iteration', yLabel: 'residual', width, height: 320,
+        series: residuals.map(seriesOf), horizontalRules: rules, verticalRules: restarts, idPrefix: `run${runIndex}-residuals`,
+      }),
+    });
+  }
+
+  const quantities = run.snapshot.series.filter((c) => kindOf(c) === 'quantity' && c.length > 0).slice(0, MAX_QUANTITY_CHARTS);
+  quantities.forEach((c, i) => {
+    const s: SeriesDiagnosis | undefined = diagnoses.get(c.info.name);
+    const bands: ChartBand[] = [];
+    if (s?.mean !== undefined && s.halfWidth !== undefined && Number.isFinite(s.mean) && Number.isFinite(s.halfWidth)) {
+      bands.push({
+        name: `settled mean ${formatNumber(s.mean, 6)} ± ${formatNumber(s.halfWidth, 3)} (95 %)`,
+        fromX: s.settledFrom ?? c.iterations[0], toX: c.iterations[c.length - 1], low: s.mean - s.halfWidth, high: s.mean + s.halfWidth, centre: s.mean,
+      });
+    }
+    const name = c.info.label ?? c.info.name;
+    const title = `${name} — ${run.log}`;
+    const description = `${name} against iteration${bands.length ? `, with its settled mean and 95 % confidence band from iteration ${formatNumber(bands[0].fromX)}` : ' (not settled: no band)'}.`;
+    charts.push({
+      title, description,
+      svg: renderLineChartSvg({
+        title, description, yScale: 'linear', xLabel: 'iteration', yLabel: c.info.unit ? `${name} [${c.info.unit}]` : name, width, height: 260,
+        series: [seriesOf(c)], bands, verticalRules: restarts, idPrefix: `run${runIndex}-q${i}`,
+      }),
+    });
+  });
+  return charts;
+}
