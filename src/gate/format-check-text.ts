@@ -22,7 +22,7 @@ export function seriesFigures(series: SeriesDiagnosis): string {
   if (series.dropDecades !== undefined) parts.push(`${formatNumber(series.dropDecades, 2)} decades down`);
   if (series.ordersPerKilo !== undefined) parts.push(`${formatNumber(series.ordersPerKilo, 2)} decades/1000 it`);
   if (series.rho !== undefined) parts.push(`rho ${formatNumber(series.rho, 6)}`);
-  if (series.eta !== undefined) parts.push(Number.isFinite(series.eta) ? `about ${Math.round(series.eta)} it to target` : 'target out of reach at this rate');
+  if (series.eta !== undefined && series.eta > 0) parts.push(Number.isFinite(series.eta) ? `about ${Math.round(series.eta)} it to target` : 'target out of reach at this rate');
   if (series.period !== undefined) parts.push(`period ${formatNumber(series.period, 3)} it`);
   if (series.amplitudeDecades !== undefined) parts.push(`amplitude ${formatNumber(series.amplitudeDecades, 2)} decades`);
   if (series.amplitudeRelative !== undefined) parts.push(`amplitude ${formatNumber(series.amplitudeRelative * 100, 2)} %`);

@@ -28,6 +28,8 @@ describe('check text', () => {
     expect(seriesFigures(makeSeries({ name: 'r', eta: 2290.4 }))).toBe('about 2290 it to target');
     expect(seriesFigures(makeSeries({ name: 'q', kind: 'quantity', mean: 2.243, iterationError: 3.1e-6 }))).toBe('mean 2.243, iteration error 3.1e-6');
     expect(seriesFigures(makeSeries({ name: 'r' }))).toBe('');
+    expect(seriesFigures(makeSeries({ name: 'r', eta: 0 }))).toBe('');
+    expect(seriesFigures(makeSeries({ name: 'r', eta: Infinity }))).toBe('target out of reach at this rate');
   });
 
   it('says so when no iterations were read', () => {
