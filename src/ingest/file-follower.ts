@@ -12,7 +12,9 @@
  *   2. Another inode or device: drain the old descriptor, `replaced`, read the new file from 0.
  *   3. Polling (network file systems): open the path again, because attribute caches make a held
  *      descriptor's size stale; the fresh descriptor's size is what the server says now.
- *   4. Size below the offset read so far: `truncated`, read again from 0.
+ *   4. Size below the offset read so far, or the last bytes read no longer the same (the file was
+ *      emptied and rewritten past our offset between two checks, as `>` redirection or a
+ *      copy-and-truncate rotation can do): `truncated`, read again from 0.
  *   5. Read from the offset to the end, in chunks at explicit positions.
  * Checks never overlap: a wake-up during a check runs one more check after it.
  *
@@ -54,11 +56,16 @@ export interface FileFollowerOptions {
 
 type Watcher = { close(): Promise<void> };
 
+/** How many of the last bytes read are kept to notice a rewrite from the top. */
+const TAIL_BYTES = 64;
+
 export class FileFollower {
   private handle: FileHandle | undefined;
   private ino = -1;
   private dev = -1;
   private offset = 0;
+  /** The last bytes read (up to TAIL_BYTES), to notice a file rewritten from the top. */
+  private tail: Buffer = Buffer.alloc(0);
   /** An earlier file had this name (deleted or replaced): the next file to appear replaces it. */
   private hadEarlierFile = false;
   /** No more checks (stopping, or failed). */
@@ -233,10 +240,11 @@ export class FileFollower {
       await old.close().catch(() => undefined);
     }
     const size = (await this.handle.stat()).size;
-    if (size < this.offset) {
+    if (size < this.offset || !(await this.tailUnchanged())) {
       this.flushPartial();
       this.options.event({ type: 'truncated', path });
       this.offset = 0;
+      this.tail = Buffer.alloc(0);
     }
     if (size !== this.offset) await this.readToEnd();
   }
@@ -283,6 +291,7 @@ export class FileFollower {
     this.ino = stats.ino;
     this.dev = stats.dev;
     this.offset = 0;
+    this.tail = Buffer.alloc(0);
   }
 
   private async readToEnd(onBytes?: (bytes: number) => void, shouldStop?: () => boolean): Promise<void> {
@@ -290,10 +299,31 @@ export class FileFollower {
     if (!handle) return;
     const { splitter, deliver } = this.options;
     this.offset = await readFileChunks(handle, this.offset, this.options.buffers, (chunk) => {
+      this.rememberTail(chunk);
       const lines = splitter.push(chunk);
       if (lines.length > 0) deliver(lines);
       onBytes?.(chunk.length);
     }, { shouldStop });
+  }
+
+  /** Keep a copy of the last TAIL_BYTES bytes read (the chunk buffer is reused). */
+  private rememberTail(chunk: Buffer): void {
+    if (chunk.length >= TAIL_BYTES) {
+      this.tail = Buffer.from(chunk.subarray(chunk.length - TAIL_BYTES));
+    } else {
+      const joined = Buffer.concat([this.tail, chunk]);
+      this.tail = Buffer.from(joined.subarray(Math.max(0, joined.length - TAIL_BYTES)));
+    }
+  }
+
+  /** Are the bytes just before the offset still the ones we read there? One small read. */
+  private async tailUnchanged(): Promise<boolean> {
+    const handle = this.handle;
+    const length = this.tail.length;
+    if (!handle || length === 0 || this.offset < length) return true;
+    const now = Buffer.alloc(length);
+    const { bytesRead } = await handle.read(now, 0, length, this.offset - length);
+    return bytesRead === length && now.equals(this.tail);
   }
 
   private flushPartial(): void {
@@ -307,6 +337,7 @@ export class FileFollower {
     this.ino = -1;
     this.dev = -1;
     this.offset = 0;
+    this.tail = Buffer.alloc(0);
     await handle?.close().catch(() => undefined);
   }
 

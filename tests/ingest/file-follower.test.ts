@@ -4,7 +4,7 @@
  * nothing sleeps for a fixed time.
  */
 import { afterAll, afterEach, describe, expect, it } from 'vitest';
-import { appendFileSync, renameSync, truncateSync, unlinkSync, writeFileSync } from 'node:fs';
+import { appendFileSync, closeSync, openSync, renameSync, writeSync, truncateSync, unlinkSync, writeFileSync } from 'node:fs';
 import { openLineSource, type OpenLineSourceOptions } from '../../src/ingest/open-line-source.js';
 import type { LineSource } from '../../src/ingest/line-source.js';
 import { CollectingSink, tempFolder, waitUntil } from './collecting-sink.js';
@@ -84,6 +84,21 @@ describe('following a log as it grows', () => {
     expect(sink.eventTypes()).toEqual(['opened', 'truncated']);
   });
 
+  it('notices a file rewritten from the top past the old end (no shrink ever visible)', async () => {
+    const path = tmp.path('rewrite.log');
+    writeFileSync(path, 'old\n'.repeat(5));
+    const { sink } = follow([path]);
+    await waitUntil('the old content', () => sink.lines.length === 5);
+    // Overwrite in place from byte 0 with more bytes than before, never truncating: only the
+    // changed bytes before the old offset can tell.
+    const fd = openSync(path, 'r+');
+    writeSync(fd, Buffer.from('new\n'.repeat(8)), 0, 32, 0);
+    closeSync(fd);
+    await waitUntil('the rewritten content', () => sink.lines.length === 13);
+    expect(sink.lines).toEqual([...Array(5).fill('old'), ...Array(8).fill('new')]);
+    expect(sink.eventTypes()).toEqual(['opened', 'truncated']);
+  });
+
   it('drains the old file, then reads the new one after a rename-over replacement', async () => {
     const path = tmp.path('replace.log');
     writeFileSync(path, 'old 1\n');
@@ -151,6 +166,17 @@ describe('following a log as it grows', () => {
     await waitUntil('growth of the last file', has(sink, 'iter=9'));
     expect(sink.lines).toEqual(numbered(1, 9));
     expect(sink.events).toEqual([0, 1, 2].map((index) => ({ type: 'opened', path: paths[index], index })));
+  });
+
+  it('keeps reading when change events never arrive, from its own periodic checks', async () => {
+    const path = tmp.path('no-events.log');
+    writeFileSync(path, 'iter=1\n');
+    // Polling every minute: chokidar reports nothing during this test; only the 100 ms checks can.
+    const { sink } = follow([path], { pollMs: 60_000, statIntervalMs: 100 });
+    await waitUntil('the existing line', has(sink, 'iter=1'));
+    appendFileSync(path, 'iter=2\n');
+    await waitUntil('the appended line', has(sink, 'iter=2'));
+    expect(sink.lines).toEqual(['iter=1', 'iter=2']);
   });
 
   it('polls when asked (network file systems): appends and truncation are seen without events', async () => {
