@@ -85,7 +85,7 @@ export function buildViewModel(
   return {
     kind: 'run',
     layout,
-    header: header(snapshot, view, pace, now, context),
+    header: buildHeaderModel(snapshot, view, pace, now, context),
     verdict: verdict(diagnosis, snapshot, context),
     residuals,
     quantity,
@@ -155,7 +155,7 @@ const log10OrNaN = (value: number): number => (value > 0 && Number.isFinite(valu
 const finiteOrNaN = (value: number): number => (Number.isFinite(value) ? value : Number.NaN);
 
 function xTicks(window: ChartWindow, plotCols: number): { at: number; label: string }[] {
-  return niceTicks(window.from, window.to, Math.max(1, Math.floor(plotCols / 12)))
+  return niceTicks(window.from, window.to, Math.max(2, Math.floor(plotCols / 10)))
     .filter((at) => Number.isInteger(at))
     .map((at) => ({ at, label: formatCountShort(at) }));
 }
@@ -318,7 +318,8 @@ function seriesRow(
   };
 }
 
-function header(snapshot: RunSnapshot, view: ViewState, pace: MonitorPace, now: number, context: RunContext): HeaderModel {
+/** The header alone (the clock moves it even when no data arrives). */
+export function buildHeaderModel(snapshot: RunSnapshot, view: ViewState, pace: MonitorPace, now: number, context: RunContext): HeaderModel {
   let position = 'no records yet';
   if (!Number.isNaN(snapshot.lastIteration)) {
     position = `iteration ${formatCount(snapshot.lastIteration)}`;

@@ -56,7 +56,7 @@ function paintRun(model: RunViewModel, colour: boolean): Partial<Record<PanelNam
 }
 
 export function paintHeader(header: HeaderModel, width: number): StyledLine {
-  const sep: Segment = { text: '  ·  ', style: { fg: 'gray' } };
+  const sep: Segment = { text: width >= 120 ? '  ·  ' : ' · ', style: { fg: 'gray' } };
   const right: Segment[] = [sep, { text: header.parser }, sep, { text: header.position, style: { bold: true } }, sep, { text: header.pace }, sep,
     header.stale ? { text: `no growth: ${header.growth.replace(/^grew /, 'last grew ')}`, style: { fg: 'yellow', bold: true, inverse: true } } : { text: header.growth }];
   if (header.span !== 'whole history') right.push(sep, { text: header.span });
@@ -89,10 +89,10 @@ const TABLE_COLUMNS: readonly Column[] = [
   { title: 'last', width: 8, align: 'right', cell: (row) => ({ text: row.last }) },
   { title: 'trend', width: 10, align: 'right', cell: (row) => ({ text: row.trend }) },
   { title: 'it left', width: 8, align: 'right', cell: (row) => ({ text: row.etaIterations }) },
-  { title: 'time left', width: 9, align: 'right', cell: (row) => ({ text: row.etaTime }) },
+  { title: 'time', width: 7, align: 'right', cell: (row) => ({ text: row.etaTime }) },
   { title: 'settled ±95%', width: 16, align: 'right', cell: (row) => ({ text: row.settled }) },
 ];
-const NAME_MIN = 8;
+const NAME_MIN = 10;
 const WHY_MIN = 24;
 
 export function paintTable(rows: readonly SeriesRow[], width: number, height: number): StyledLine[] {

@@ -114,7 +114,6 @@ export function applyKey(state: ViewState, key: string, context: KeyContext): Ke
     case 'a':
       return state.hidden.size === 0 ? same : next({ hidden: new Set() });
     case 'enter':
-    case 'return':
       return state.mode === 'overview' && context.runCount > 0
         ? next({ mode: 'run', seriesCursor: 0, quantityIndex: 0, hidden: new Set() })
         : same;
