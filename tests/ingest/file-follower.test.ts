@@ -179,6 +179,19 @@ describe('following a log as it grows', () => {
     expect(sink.lines).toEqual(['iter=1', 'iter=2']);
   });
 
+  it('rejects run() with the error when the sink throws while following', async () => {
+    const path = tmp.path('sink-fails.log');
+    writeFileSync(path, 'iter=1\n');
+    const failure = new Error('downstream bug');
+    const source = openLineSource({ paths: [path], follow: true });
+    open.push(source);
+    let calls = 0;
+    const done = source.run({ onLines: () => { calls += 1; if (calls > 1) throw failure; }, onEvent: () => undefined });
+    await waitUntil('the first batch', () => calls === 1);
+    appendFileSync(path, 'iter=2\n');
+    await expect(done).rejects.toBe(failure);
+  });
+
   it('polls when asked (network file systems): appends and truncation are seen without events', async () => {
     const path = tmp.path('polled.log');
     writeFileSync(path, 'iter=1\n');

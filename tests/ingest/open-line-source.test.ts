@@ -3,6 +3,8 @@ import { chmodSync, mkdirSync, statSync, writeFileSync, readFileSync } from 'nod
 import { PassThrough } from 'node:stream';
 import { gzipSync } from 'node:zlib';
 import { createHash } from 'node:crypto';
+import { execFileSync } from 'node:child_process';
+import { open as openAsync } from 'node:fs/promises';
 import { openLineSource } from '../../src/ingest/open-line-source.js';
 import { InputError, UsageError } from '../../src/errors.js';
 import { CollectingSink, tempFolder } from './collecting-sink.js';
@@ -79,6 +81,27 @@ describe('openLineSource, reading a finished log (post-mortem)', () => {
       `${path}: bytes that are not valid UTF-8 were read as the replacement character (U+FFFD)`,
       `${path}: a line longer than 20 bytes was cut to that length (the rest of it was skipped; later long lines are cut without another warning)`,
     ]);
+  });
+
+  it('cuts a 10 MB line to the 1 MiB default and reads on', async () => {
+    const path = tmp.path('huge-line.log');
+    writeFileSync(path, `iter=1\n${'9'.repeat(10 * 1024 * 1024)}\niter=2\n`);
+    const sink = await readAll([path]);
+    expect(sink.lines.map((line) => line.length)).toEqual([6, 1024 * 1024, 6]);
+    expect(sink.lines[2]).toBe('iter=2');
+    expect(sink.warnings()).toHaveLength(1);
+  });
+
+  it('reads a named pipe (as from a shell\'s <(command)) to its end', async () => {
+    const path = tmp.path('pipe');
+    execFileSync('mkfifo', [path]);
+    const sink = new CollectingSink();
+    const done = openLineSource({ paths: [path], follow: false }).run(sink);
+    const writer = await openAsync(path, 'w');
+    await writer.write('iter=1\niter=2\nlast');
+    await writer.close();
+    await done;
+    expect(sink.lines).toEqual(['iter=1', 'iter=2', 'last']);
   });
 
   it('stops early on close(), drops the line cut by the interruption, and still ends', async () => {
