@@ -13,13 +13,16 @@
  * - converged: at or below the level;
  * - diverging: now ≥ 3 decades above the window's lowest value (a jump), or the window's trend rises by
  *   ≥ 1 decade (sustained growth);
- * - converging: falling at a useful rate, i.e. the target is reached within 10 × the iterations judged
- *   so far (at least 10 windows);
- * - oscillating: once a whole window has been seen and the fall is not useful, a cycle in the ACF of
- *   log10 r (detect-oscillation.ts), reported with its period and amplitude in decades;
- * - stalled: a whole window seen, no useful fall, no cycle; otherwise still undecided.
+ * - oscillating: once a whole window has been seen and the window's fall is less than twice the
+ *   wiggle about the trend line, a cycle in the ACF of log10 r (detect-oscillation.ts) whose net fall
+ *   over the tested region (up to 2 048 points) is less than its amplitude; reported with its period
+ *   and amplitude in decades;
+ * - converging: falling at a useful rate: the window's fall exceeds half the wiggle about its trend
+ *   line (not flat) and the target is reached within 100 × the iterations judged so far (at least
+ *   100 windows);
+ * - stalled: a whole window seen, flat or crawling, no cycle; before that converging or undecided.
  * Cost: O(log n + m² log m) with m ≤ 48 Theil–Sen points, plus O(2048²/3) for the cycle test,
- * which runs only when the residual is not falling usefully.
+ * which runs only when the trend does not clearly dominate the wiggle.
  */
 import type { SeriesColumn } from '../series/series-column.js';
 import type { SeriesDiagnosis, State } from './diagnosis.js';
@@ -36,7 +39,7 @@ export const JUMP_DECADES = 3;
 /** A window trend rising by this many decades is sustained growth. */
 export const GROWTH_DECADES = 1;
 /** A fall counts as useful while the target is within this many times the iterations judged so far. */
-export const USEFUL_FACTOR = 10;
+export const USEFUL_FACTOR = 100;
 /** Most points given to the cycle test. */
 export const OSCILLATION_POINTS = 2048;
 
@@ -110,21 +113,33 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   }
 
   const judgedSpan = lastIteration - column.iterations[judgedFrom];
-  const useful = slope < 0 && trend.eta !== undefined && trend.eta <= USEFUL_FACTOR * Math.max(judgedSpan, options.window);
+  const windowSeen = judgedSpan >= options.window;
+  // A cycle test only when the trend is not clearly larger than the wiggle around it (cheap guard:
+  // a clean decay skips it, which keeps the cost of healthy runs low).
+  const fall = -slope * windowSpan;
+  const spread = spreadAroundLine(column.iterations, windowLogs, windowFrom, slope);
+  if (windowSeen && fall < 2 * spread) {
+    const cycleFrom = Math.max(judgedFrom, end - Math.min(OSCILLATION_POINTS, Math.max(4 * (end - windowFrom), 256)));
+    const cycleLogs = logs(cycleFrom, end);
+    const cycle = detectOscillation(cycleLogs, 0, cycleLogs.length);
+    if (cycle !== null) {
+      const regionSlope = theilSenSlope(column.iterations.subarray(cycleFrom, end), cycleLogs, 0, cycleLogs.length);
+      const netFall = -regionSlope * (lastIteration - column.iterations[cycleFrom]);
+      if (netFall < cycle.amplitude) {
+        const spacing = (lastIteration - column.iterations[cycleFrom]) / Math.max(1, end - 1 - cycleFrom);
+        const period = cycle.period * spacing;
+        return with_('oscillating', `${info.name} cycles every ${formatCount(period)} iterations by ±${formatDecades(cycle.amplitude)} decades without falling`,
+          { ...common, ...trend, period, amplitudeDecades: cycle.amplitude });
+      }
+    }
+  }
+  const flat = fall < 0.5 * spread;
+  const useful = !flat && slope < 0 && trend.eta !== undefined && trend.eta <= USEFUL_FACTOR * Math.max(judgedSpan, options.window);
   if (useful) {
     return with_('converging', `${info.name} falling ${formatDecades(trend.ordersPerKilo)} orders per 1000 iterations, about ${formatEstimate(trend.eta ?? Number.NaN)} to go`, { ...common, ...trend });
   }
-  const windowSeen = judgedSpan >= options.window;
   if (!windowSeen) {
     return with_(slope < 0 ? 'converging' : 'undecided', `${info.name} ${slope < 0 ? 'falling slowly' : 'not falling yet'}; judged after ${formatCount(options.window)} iterations`, { ...common, ...trend });
-  }
-  const cycleFrom = Math.max(judgedFrom, end - Math.min(OSCILLATION_POINTS, Math.max(2 * (end - windowFrom), 256)));
-  const cycle = detectOscillation(logs(cycleFrom, end), 0, end - cycleFrom);
-  if (cycle !== null) {
-    const spacing = (lastIteration - column.iterations[cycleFrom]) / Math.max(1, end - 1 - cycleFrom);
-    const period = cycle.period * spacing;
-    return with_('oscillating', `${info.name} cycles every ${formatCount(period)} iterations by ±${formatDecades(cycle.amplitude)} decades without falling`,
-      { ...common, ...trend, period, amplitudeDecades: cycle.amplitude });
   }
   const flatFor = lastIteration - column.iterations[windowFrom];
   const reason = slope < 0
@@ -149,4 +164,19 @@ function trendFields(column: SeriesColumn, from: number, to: number, levelLog: n
   if (reached) return { ...fields, eta: 0 };
   if (slope < 0) return { ...fields, eta: (levelLog - nowLog) / slope };
   return fields;
+}
+
+/** Robust wiggle about the line of the given slope: the 10 %–90 % inter-quantile range of the
+ * deviations (about the peak-to-peak of a sine, 2.6 σ of Gaussian noise; isolated spikes do not count),
+ * from at most 512 points spread evenly over the window. */
+function spreadAroundLine(iterations: Float64Array, logs: Float64Array, from: number, slope: number): number {
+  const m = Math.min(logs.length, 512);
+  if (m < 2) return 0;
+  const deviations = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
+    const i = Math.round((k * (logs.length - 1)) / (m - 1));
+    deviations[k] = logs[i] - slope * iterations[from + i];
+  }
+  deviations.sort();
+  return deviations[Math.floor(0.9 * (m - 1))] - deviations[Math.floor(0.1 * (m - 1))];
 }

@@ -9,6 +9,10 @@
  * Sources: White (1997), "An effective truncation heuristic for bias reduction in simulation output",
  * Simulation 69(6):323–334; White, Cobb & Spratt (2000), "A comparison of five steady-state truncation
  * heuristics for simulation", Proc. Winter Simulation Conference.
+ * Guard (ours): candidates that keep fewer than a quarter of the batches (at least 5) are not
+ * considered. With very few batches kept, MSER(d) is the variance of a handful of values and is small
+ * by chance often enough (about one time in five for two batches of white noise) to make a settled
+ * series look unsettled at random.
  *
  * Cost: O(n) time (suffix sums, one backward pass), O(n/5) memory.
  *
@@ -29,7 +33,7 @@ export const MSER_BATCH = 5;
 
 export function mserTruncation(values: ArrayLike<number>, from: number, to: number, batchSize = MSER_BATCH): MserResult | null {
   const k = Math.floor((to - from) / batchSize);
-  if (!(k >= 4)) return null;
+  if (!(k >= 10)) return null;
   const z = new Float64Array(k);
   for (let j = 0; j < k; j++) {
     let sum = 0;
@@ -39,6 +43,7 @@ export function mserTruncation(values: ArrayLike<number>, from: number, to: numb
   }
   // Centre on the last batch to keep the sums of squares accurate for large offsets.
   const shift = z[k - 1];
+  const minKept = Math.max(5, Math.ceil(k / 4));
   let sum = 0;
   let sumSquares = 0;
   let bestD = k - 1;
@@ -49,7 +54,7 @@ export function mserTruncation(values: ArrayLike<number>, from: number, to: numb
     sum += v;
     sumSquares += v * v;
     const kept = k - d;
-    if (kept < 2) continue;
+    if (kept < minKept) continue;
     const ss = Math.max(0, sumSquares - (sum * sum) / kept);
     const mser = ss / (kept * kept);
     if (mser <= best) {

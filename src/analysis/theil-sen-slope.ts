@@ -12,7 +12,7 @@
  * Pairs with equal x are skipped. Returns NaN when fewer than two distinct x remain or a value is not
  * finite.
  *
- * @example theilSenSlope([0, 1, 2, 3], [0, 2, 4, 100], 0, 4) // → 2 (the outlier does not pull it)
+ * @example theilSenSlope([0, 1, 2, 3, 4], [0, 2, 4, 6, 100], 0, 5) // → 2 (the outlier does not pull it)
  */
 export function theilSenSlope(
   xs: ArrayLike<number>,
