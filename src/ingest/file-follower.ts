@@ -56,6 +56,11 @@ export interface FileFollowerOptions {
 
 type Watcher = { close(): Promise<void> };
 
+/** A failure of the file system (it has an errno code and a system call), not a bug downstream. */
+function isSystemError(error: unknown): boolean {
+  return errorCodeOf(error) !== undefined && typeof (error as { syscall?: unknown }).syscall === 'string';
+}
+
 /** How many of the last bytes read are kept to notice a rewrite from the top. */
 const TAIL_BYTES = 64;
 
@@ -98,7 +103,7 @@ export class FileFollower {
       } catch (error) {
         this.failed = true;
         this.stopped = true;
-        throw error;
+        throw isSystemError(error) ? readFailure(path, error) : error;
       }
       if (this.options.shouldStop?.()) return;
     } else {
@@ -153,6 +158,7 @@ export class FileFollower {
 
   private async startWatcher(): Promise<void> {
     const { path, pollMs } = this.options;
+    const every = this.options.statIntervalMs ?? pollMs ?? 1000;
     try {
       const { watch } = await import('chokidar');
       if (this.stopped) return;
@@ -164,10 +170,10 @@ export class FileFollower {
         binaryInterval: pollMs,
       });
       watcher.on('all', () => this.hint());
-      watcher.on('error', (error: unknown) => this.warnOnce('watch', `${path}: change events unavailable (${String((error as Error)?.message ?? error)}); checking every ${pollMs ?? 1000} ms instead`));
+      watcher.on('error', (error: unknown) => this.warnOnce('watch', `${path}: change events unavailable (${String((error as Error)?.message ?? error)}); checking every ${every} ms instead`));
       this.watcher = watcher;
     } catch (error) {
-      this.warnOnce('watch', `${path}: change events unavailable (${String((error as Error)?.message ?? error)}); checking on a timer instead`);
+      this.warnOnce('watch', `${path}: change events unavailable (${String((error as Error)?.message ?? error)}); checking every ${every} ms instead`);
     }
   }
 
@@ -189,7 +195,7 @@ export class FileFollower {
       try {
         await this.check();
       } catch (error) {
-        if (errorCodeOf(error) !== undefined && (error as { syscall?: unknown }).syscall !== undefined) {
+        if (isSystemError(error)) {
           this.report(error);
         } else {
           this.stopped = true;
