@@ -14,6 +14,10 @@ export interface InspectSummary {
   readonly explanation: string;
   readonly records: number;
   readonly restarts: number;
+  readonly lastIteration: number;
+  /** Transient runs: time steps seen and the last physical time. */
+  readonly timeSteps?: number;
+  readonly lastTime?: number;
   readonly series: readonly { name: string; kind: string; unit?: string; count: number; first: number; last: number }[];
   readonly warnings: readonly string[];
 }
@@ -43,6 +47,9 @@ export async function inspectLogs(paths: readonly string[], options: SourceOptio
     explanation: choice?.explanation ?? 'the log is empty',
     records: snapshot.records,
     restarts: snapshot.restarts.length,
+    lastIteration: snapshot.lastIteration,
+    timeSteps: snapshot.timeSteps?.length,
+    lastTime: snapshot.timeSteps?.[snapshot.timeSteps.length - 1]?.time,
     series: snapshot.series.map((column) => ({
       name: column.info.name,
       kind: column.info.kind,
@@ -69,8 +76,12 @@ export function inspectText(paths: readonly string[], summary: InspectSummary): 
   const lines = [
     `log:       ${paths.join(' + ')}`,
     `parser:    ${summary.explanation}`,
-    `records:   ${summary.records} iteration${summary.records === 1 ? '' : 's'}${summary.restarts > 0 ? `, ${summary.restarts} restart${summary.restarts === 1 ? '' : 's'}` : ''}`,
+    `records:   ${plural(summary.records, 'record')}${summary.records > 0 ? ` (last iteration ${summary.lastIteration})` : ''}`
+      + (summary.restarts > 0 ? `, ${plural(summary.restarts, 'restart')}` : ''),
   ];
+  if (summary.timeSteps !== undefined) {
+    lines.push(`transient: ${plural(summary.timeSteps, 'time step')}${summary.lastTime !== undefined ? `, last at t = ${formatNumber(summary.lastTime)}` : ''}`);
+  }
   if (summary.series.length === 0) {
     lines.push('series:    none');
   } else {
@@ -82,6 +93,10 @@ export function inspectText(paths: readonly string[], summary: InspectSummary): 
   }
   for (const warning of summary.warnings) lines.push(`warning:   ${warning}`);
   return `${lines.join('\n')}\n`;
+}
+
+function plural(count: number, word: string): string {
+  return `${count} ${word}${count === 1 ? '' : 's'}`;
 }
 
 function isFile(value: string): boolean {
