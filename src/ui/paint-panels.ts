@@ -28,8 +28,8 @@ export function paintDashboard(model: DashboardModel, colour: boolean): Partial<
   const { layout } = model;
   if (model.tooSmall) {
     const rect: Rect = { left: 0, top: 0, width: layout.cols, height: layout.rows };
-    const text = `terminal is ${layout.cols}×${layout.rows}; settle watch needs at least ${MIN_COLS}×${MIN_ROWS}`;
-    return { notice: { rect, lines: [fitLine([{ text }], layout.cols), fitLine([{ text: 'enlarge the window, or press q to quit' }], layout.cols)] } };
+    const text = `too small: ${layout.cols}×${layout.rows}, needs at least ${MIN_COLS}×${MIN_ROWS}`;
+    return { notice: { rect, lines: [fitLine([{ text }], layout.cols), fitLine([{ text: 'enlarge the window (q quits)' }], layout.cols)] } };
   }
   const panels: Partial<Record<PanelName, PaintedPanel>> = model.kind === 'run' ? paintRun(model, colour) : paintOverview(model);
   if (model.help) panels.help = { rect: layout.help, title: ' keys ', lines: paintHelp(layout.help.width - 2, layout.help.height - 2) };
