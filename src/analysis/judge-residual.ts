@@ -15,13 +15,13 @@
  *   ≥ 1 decade (sustained growth);
  * - oscillating: once a whole window has been seen and the window's fall is less than twice the
  *   wiggle about the trend line, a cycle in the ACF of log10 r (detect-oscillation.ts) whose net fall
- *   over the tested region (up to 2 048 points) is less than its amplitude; reported with its period
+ *   over the tested region (up to 1 024 points) is less than its amplitude; reported with its period
  *   and amplitude in decades;
  * - converging: falling at a useful rate: the window's fall exceeds half the wiggle about its trend
  *   line (not flat) and the target is reached within 100 × the iterations judged so far (at least
  *   100 windows);
  * - stalled: a whole window seen, flat or crawling, no cycle; before that converging or undecided.
- * Cost: O(log n + m² log m) with m ≤ 48 Theil–Sen points, plus O(2048²/3) for the cycle test,
+ * Cost: O(log n + m² log m) with m ≤ 48 Theil–Sen points, plus O(1024²/3) for the cycle test,
  * which runs only when the trend does not clearly dominate the wiggle.
  */
 import type { SeriesColumn } from '../series/series-column.js';
@@ -41,7 +41,7 @@ export const GROWTH_DECADES = 1;
 /** A fall counts as useful while the target is within this many times the iterations judged so far. */
 export const USEFUL_FACTOR = 100;
 /** Most points given to the cycle test. */
-export const OSCILLATION_POINTS = 2048;
+export const OSCILLATION_POINTS = 1024;
 
 export interface ResidualJudgeOptions {
   readonly window: number;
