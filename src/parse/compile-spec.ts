@@ -8,7 +8,7 @@ import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './reco
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { groupNames, UserPattern } from './user-pattern.js';
 import { globMatcher } from './glob-matcher.js';
-import { lexNumber } from './lex-number.js';
+import { lexNumber, lexNumberIn } from './lex-number.js';
 import { scanKeyValues } from './scan-key-values.js';
 import { splitFields } from './split-fields.js';
 import { RecordAssembler } from './record-assembler.js';
@@ -126,7 +126,19 @@ class SpecParser implements RecordParser {
   private readonly lexed: number[] = [];
   private pairKind: SeriesKind | undefined;
   private pairsSeen = 0;
-  private readonly onPair = (name: string, valueText: string): void => this.addPair(name, valueText);
+  /** Names seen at each pair position on the previous line, so that the usual case (the same
+   * names in the same order on every line) allocates no name strings. */
+  private readonly pairNames: string[] = [];
+  private readonly onPair = (line: string, nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number): void => {
+    const value = lexNumberIn(line, valueStart, valueEnd);
+    if (value === undefined) return;
+    let name = this.pairNames[index];
+    if (name === undefined || name.length !== nameEnd - nameStart || !line.startsWith(name, nameStart)) {
+      name = line.slice(nameStart, nameEnd);
+      this.pairNames[index] = name;
+    }
+    this.addValue(name, value, undefined);
+  };
 
   constructor(private readonly plan: Plan, sink: RecordSink) {
     this.id = plan.spec.id;
@@ -216,7 +228,10 @@ class SpecParser implements RecordParser {
 
   private addPair(name: string, valueText: string, unit?: string): void {
     const value = lexNumber(valueText);
-    if (value === undefined) return;
+    if (value !== undefined) this.addValue(name, value, unit);
+  }
+
+  private addValue(name: string, value: number, unit: string | undefined): void {
     this.pairsSeen++;
     const counter = this.plan.counterOf.size > 0 ? this.plan.counterOf.get(name) : undefined;
     if (counter !== undefined) { this.assembler.setCounter(counter, value); return; }

@@ -3,11 +3,13 @@
  * blanks around the sign (`name = value`) or another sign (`name: value`). Names run back from the
  * sign to the previous blank, comma or semicolon and must not start with a digit (so times such as
  * `12:30:05` are not pairs); values run forward to the next one.
- * Cost: O(line length); allocates the name and value strings only.
+ * Cost: O(line length); allocates nothing itself: the visitor gets positions, so the caller can
+ * lex the value in place and reuse the name string it saw on the line before.
  */
 
-/** Called for each pair found; return nothing. */
-export type PairVisitor = (name: string, valueText: string) => void;
+/** Called for each pair found, with the name at [nameStart, nameEnd) and the value at
+ * [valueStart, valueEnd) of `line`, and the pair's index on the line (0, 1, ...). */
+export type PairVisitor = (line: string, nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number) => void;
 
 function isDelimiter(code: number): boolean {
   return code === 32 || code === 9 || code === 44 || code === 59 || code === 13;
@@ -37,7 +39,7 @@ export function scanKeyValues(line: string, assign: string, visit: PairVisitor):
     if (nameEnd > nameStart && valueEnd > valueStart) {
       const first = line.charCodeAt(nameStart);
       if (!(first >= 48 && first <= 57)) {
-        visit(line.slice(nameStart, nameEnd), line.slice(valueStart, valueEnd));
+        visit(line, nameStart, nameEnd, valueStart, valueEnd, found);
         found++;
       }
     }

@@ -126,18 +126,21 @@ export class UserPattern {
   readonly regex: RegExp;
   private readonly filterText: string;
   private readonly filterAtStart: boolean;
+  private readonly filterFirst: number;
 
   constructor(readonly source: string, contains?: string, global = false) {
     this.regex = new RegExp(source, global ? 'g' : '');
     const literal = contains !== undefined ? { text: contains, atStart: false } : leadingLiteral(source);
     this.filterText = literal?.text ?? '';
     this.filterAtStart = literal?.atStart ?? false;
+    this.filterFirst = this.filterText.charCodeAt(0);
   }
 
   /** Cheap check: can this line match at all? */
   mayMatch(line: string): boolean {
     if (this.filterText.length === 0) return true;
-    return this.filterAtStart ? line.startsWith(this.filterText) : line.includes(this.filterText);
+    if (this.filterAtStart) return line.charCodeAt(0) === this.filterFirst && line.startsWith(this.filterText);
+    return line.includes(this.filterText);
   }
 
   exec(line: string): RegExpExecArray | null {
