@@ -116,7 +116,7 @@ export function buildSampleLogs(): SampleLog[] {
     why: 'residuals fall geometrically by six decades; Nusselt numbers settle to 2.31 on both walls' },
   cavityText('healthy', 'block', g, 2));
   add({ file: 'cavity-diverging.kv.log', parser: 'settle-kv', expected: 'diverging',
-    producer: `${cavity}, scenario diverging (pseudo-time step 1.45 × the stability limit)`,
+    producer: `${cavity}, scenario diverging (pseudo-time step 1.5 × the stability limit)`,
     why: 'the vorticity residual grows by decades until the solver\'s guard stops the run' },
   cavityText('diverging', 'kv', g));
   add({ file: 'cavity-oscillating.table.log', parser: 'settle-table', expected: 'oscillating',
@@ -150,7 +150,7 @@ export function buildSampleLogs(): SampleLog[] {
   rowsToText('table', heatRows(0.6, 800, 1), { numberStyle: 'fortran' }));
 
   add({ file: 'periodic-heat-transient.kv.log', parser: 'settle-kv', expected: 'converged',
-    producer: 'transient: 1-D heat equation with an oscillating end temperature (period 0.25), backward Euler steps of 0.005 solved by Gauss–Seidel inner iterations to a 4-decade drop, 250 steps',
+    producer: 'transient: 1-D heat equation with an oscillating end temperature 1 + ½ sin(2πt/0.25), backward Euler steps of 0.005 solved by Gauss–Seidel inner iterations to a 4-decade drop, 250 steps',
     why: 'each step\'s inner iterations reach their drop; t_mid and q_right settle into the forcing\'s periodic cycle (physical, not a fault)' },
   rowsToText('kv', simulatePeriodicHeat({ points: 15, dt: 0.005, period: 0.25, steps: 250 })));
 
