@@ -29,7 +29,7 @@ import type { Stats } from 'node:fs';
 import type { SourceEvent } from './line-source.js';
 import type { LineSplitter } from './line-splitter.js';
 import { readFileChunks, type ChunkBuffers } from './read-file-chunks.js';
-import { errorCodeOf, readFailure } from './read-failure.js';
+import { errorCodeOf, isSystemError, readFailure } from './read-failure.js';
 
 export interface FileFollowerOptions {
   readonly path: string;
@@ -55,11 +55,6 @@ export interface FileFollowerOptions {
 }
 
 type Watcher = { close(): Promise<void> };
-
-/** A failure of the file system (it has an errno code and a system call), not a bug downstream. */
-function isSystemError(error: unknown): boolean {
-  return errorCodeOf(error) !== undefined && typeof (error as { syscall?: unknown }).syscall === 'string';
-}
 
 /** How many of the last bytes read are kept to notice a rewrite from the top. */
 const TAIL_BYTES = 64;

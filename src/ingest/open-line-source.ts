@@ -27,7 +27,7 @@ import { DEFAULT_MAX_LINE_BYTES, LineSplitter, type SplitterWarning } from './li
 import { ChunkBuffers, readFileChunks } from './read-file-chunks.js';
 import { readStreamChunks } from './read-stream-chunks.js';
 import { readGzipFile, startsWithGzipMagic } from './read-gzip-file.js';
-import { errorCodeOf, readFailure } from './read-failure.js';
+import { errorCodeOf, isSystemError, readFailure } from './read-failure.js';
 import { FileFollower } from './file-follower.js';
 
 export interface OpenLineSourceOptions extends LineSourceOptions {
@@ -238,7 +238,7 @@ class LogLineSource implements LineSource {
       }
     } catch (error) {
       if (error instanceof SettleError) throw error;
-      if (errorCodeOf(error) !== undefined && (error as { syscall?: unknown }).syscall !== undefined) throw readFailure(path, error);
+      if (isSystemError(error)) throw readFailure(path, error);
       throw error;
     }
     // Closed in the middle: a line cut by the interruption is not a real last line.

@@ -33,6 +33,11 @@ export function errorCodeOf(error: unknown): string | undefined {
   return undefined;
 }
 
+/** A failure of the file system (it has an errno code and a system call), not a bug downstream. */
+export function isSystemError(error: unknown): boolean {
+  return errorCodeOf(error) !== undefined && typeof (error as { syscall?: unknown }).syscall === 'string';
+}
+
 /** An InputError for `path` (as the user wrote it) explaining why it could not be read. */
 export function readFailure(path: string, error: unknown): InputError {
   const code = errorCodeOf(error);

@@ -1,5 +1,5 @@
 /**
- * Read an open file from a byte offset to its current end, in chunks of at most 1 MiB read at
+ * Read an open file from a byte offset to its current end (or to a given offset), in chunks of at most 1 MiB read at
  * explicit positions (never through a shared file position, so nothing else can move it).
  *
  * Method: double buffering. The read of the next chunk is started before the current chunk is
@@ -22,6 +22,8 @@ export class ChunkBuffers {
 export interface ReadFileChunksOptions {
   /** Asked between chunks; true stops reading (the chunks already read are delivered). */
   readonly shouldStop?: () => boolean;
+  /** Stop at this byte offset (exclusive) instead of the end of the file. */
+  readonly end?: number;
 }
 
 /**
@@ -35,18 +37,20 @@ export async function readFileChunks(
   onChunk: (chunk: Buffer) => void,
   options: ReadFileChunksOptions = {},
 ): Promise<number> {
+  const limit = options.end ?? Number.POSITIVE_INFINITY;
+  const want = (at: number): number => Math.max(0, Math.min(CHUNK_BYTES, limit - at));
   let position = from;
   let current = buffers.first;
-  let pending = handle.read(current, 0, CHUNK_BYTES, position);
+  let pending = want(position) > 0 ? handle.read(current, 0, want(position), position) : Promise.resolve({ bytesRead: 0 });
   for (;;) {
     const { bytesRead } = await pending;
     if (bytesRead === 0) return position;
     position += bytesRead;
     const next = current === buffers.first ? buffers.second : buffers.first;
-    const stop = options.shouldStop?.() ?? false;
+    const stop = (options.shouldStop?.() ?? false) || position >= limit;
     // Prefetch only when the chunk was full: a short read almost always means the end was reached.
     const prefetch = !stop && bytesRead === CHUNK_BYTES;
-    if (prefetch) pending = handle.read(next, 0, CHUNK_BYTES, position);
+    if (prefetch) pending = handle.read(next, 0, want(position), position);
     try {
       onChunk(current.subarray(0, bytesRead));
     } catch (error) {
@@ -54,7 +58,7 @@ export async function readFileChunks(
       throw error;
     }
     if (stop) return position;
-    if (!prefetch) pending = handle.read(next, 0, CHUNK_BYTES, position);
+    if (!prefetch) pending = handle.read(next, 0, want(position), position);
     current = next;
   }
 }
