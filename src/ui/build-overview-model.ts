@@ -9,6 +9,7 @@ import type { MonitorPace } from '../monitor/run-monitor-types.js';
 import type { OverviewModel, OverviewRow } from './dashboard-model.js';
 import { dashboardLayout, layoutFits } from './dashboard-layout.js';
 import type { ViewState } from './view-state.js';
+import { cursorRun } from './view-state.js';
 import { formatAge, formatCount, formatResidual } from './format-figures.js';
 import { STALE_AFTER_MS } from './build-view-model.js';
 import type { TerminalSize } from './build-view-model.js';
@@ -46,7 +47,9 @@ export function worstResidual(snapshot: RunSnapshot): string {
 }
 
 export function buildOverviewModel(runs: readonly RunSummary[], view: ViewState, size: TerminalSize, now: number): OverviewModel {
-  const rows: OverviewRow[] = overviewOrder(runs).map((runIndex) => {
+  const order = overviewOrder(runs);
+  const cursor = cursorRun(view, { overviewOrder: order });
+  const rows: OverviewRow[] = order.map((runIndex) => {
     const run = runs[runIndex];
     const hasRecords = run.snapshot.records > 0;
     return {
@@ -57,7 +60,7 @@ export function buildOverviewModel(runs: readonly RunSummary[], view: ViewState,
       worstResidual: worstResidual(run.snapshot),
       lastGrowth: formatAge(run.pace.lastGrowthAt, now),
       stale: !Number.isNaN(run.pace.lastGrowthAt) && now - run.pace.lastGrowthAt > STALE_AFTER_MS,
-      cursor: runIndex === view.runIndex,
+      cursor: runIndex === cursor,
     };
   });
   const counts = new Map<string, number>();

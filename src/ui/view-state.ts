@@ -8,6 +8,8 @@ export interface ViewState {
   readonly mode: 'overview' | 'run';
   /** The run shown in `run` mode, and the highlighted row in `overview` mode (index into the runs as listed). */
   readonly runIndex: number;
+  /** False until the person moves the overview cursor: until then it stays on the worst run. */
+  readonly runChosen: boolean;
   /** Frozen view: data keeps arriving, the screen keeps the moment the pause began. */
   readonly paused: boolean;
   /** Charts show the last `recentIterations` iterations, or the whole history. */
@@ -26,6 +28,7 @@ export function initialViewState(runCount: number, recentIterations = 1000): Vie
   return {
     mode: runCount > 1 ? 'overview' : 'run',
     runIndex: 0,
+    runChosen: false,
     paused: false,
     span: 'all',
     recentIterations,
@@ -96,9 +99,9 @@ export function applyKey(state: ViewState, key: string, context: KeyContext): Ke
     case 'j': {
       const step = key === 'up' || key === 'k' ? -1 : 1;
       if (state.mode === 'overview') {
-        const row = context.overviewOrder.indexOf(state.runIndex);
+        const row = context.overviewOrder.indexOf(cursorRun(state, context));
         const target = context.overviewOrder[clamp(row + step, context.overviewOrder.length)];
-        return target === undefined ? same : next({ runIndex: target });
+        return target === undefined ? same : next({ runIndex: target, runChosen: true });
       }
       return next({ seriesCursor: clamp(state.seriesCursor + step, context.seriesNames.length) });
     }
@@ -115,7 +118,7 @@ export function applyKey(state: ViewState, key: string, context: KeyContext): Ke
       return state.hidden.size === 0 ? same : next({ hidden: new Set() });
     case 'enter':
       return state.mode === 'overview' && context.runCount > 0
-        ? next({ mode: 'run', seriesCursor: 0, quantityIndex: 0, hidden: new Set() })
+        ? next({ mode: 'run', runIndex: cursorRun(state, context), runChosen: true, seriesCursor: 0, quantityIndex: 0, hidden: new Set() })
         : same;
     case 'o':
     case 'escape':
@@ -124,4 +127,10 @@ export function applyKey(state: ViewState, key: string, context: KeyContext): Ke
     default:
       return same;
   }
+}
+
+/** The run under the overview cursor: the worst run (first row) until the person moves the cursor. */
+export function cursorRun(state: ViewState, context: Pick<KeyContext, 'overviewOrder'>): number {
+  if (!state.runChosen && context.overviewOrder.length > 0) return context.overviewOrder[0];
+  return state.runIndex;
 }

@@ -21,11 +21,14 @@ describe('overview of runs', () => {
 
   it('builds rows with verdict, iteration, worst residual and last growth, and a title that counts verdicts', () => {
     const runs = [summary('a.log', 'converged', 1001, 0), summary('b.log', 'diverging', 10, 50_000)];
-    const model = buildOverviewModel(runs, { ...initialViewState(2), runIndex: 1 }, { cols: 100, rows: 30 }, 60_000);
+    const model = buildOverviewModel(runs, initialViewState(2), { cols: 100, rows: 30 }, 60_000);
     expect(model.rows.map((row) => row.label)).toEqual(['b.log', 'a.log']);
     expect(model.rows[0]).toMatchObject({ verdict: 'diverging', iteration: '10', lastGrowth: '10 s ago', stale: false, cursor: true });
     expect(model.rows[1]).toMatchObject({ verdict: 'converged', iteration: '1 001', lastGrowth: '1 min ago', stale: true, cursor: false });
     expect(model.title).toBe('2 runs: 1 diverging, 1 converged');
+    // A cursor the person moved stays on its run whatever the order.
+    const chosen = buildOverviewModel(runs, { ...initialViewState(2), runIndex: 0, runChosen: true }, { cols: 100, rows: 30 }, 60_000);
+    expect(chosen.rows.map((row) => row.cursor)).toEqual([false, true]);
   });
 
   it('calls the residual with the largest last value the worst, a non-finite one worst of all', () => {

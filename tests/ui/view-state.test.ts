@@ -45,11 +45,14 @@ describe('applyKey', () => {
   });
 
   it('moves the overview cursor in the sorted order and opens the run under it', () => {
-    const overview = { ...initialViewState(3), runIndex: 2 };
+    const overview = initialViewState(3);
+    // Until moved, the cursor is on the worst run: the first in overviewOrder (run 2).
+    expect(applyKey(overview, 'enter', context).state.runIndex).toBe(2);
     const down = applyKey(overview, 'down', context).state;
     expect(down.runIndex).toBe(0);
     expect(applyKey(down, 'down', context).state.runIndex).toBe(1);
     expect(applyKey(overview, 'up', context).state.runIndex).toBe(2);
+    expect(applyKey(down, 'up', context).state.runIndex).toBe(2);
     const opened = applyKey(down, 'enter', context).state;
     expect(opened.mode).toBe('run');
     expect(opened.runIndex).toBe(0);
