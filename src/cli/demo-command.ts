@@ -138,7 +138,10 @@ export async function runDemo(options: DemoOptions, stdout: NodeJS.WritableStrea
     }
     const runWatch = await loadView<RunWatch>('./watch-command.js', 'runWatch', 'watch');
     child = startSolver({ ...options, out: logPath, rate: DEMO_RATE });
-    return await runWatch({ paths: [logPath], parserFiles: [], parserId, kindOverrides: NO_OVERRIDES, criteria: DEFAULT_CRITERIA, title });
+    const solverErrors = collectText(child);
+    const code = await runWatch({ paths: [logPath], parserFiles: [], parserId, kindOverrides: NO_OVERRIDES, criteria: DEFAULT_CRITERIA, title });
+    if (child.exitCode !== null && child.exitCode !== 0) stderr.write(solverErrors());
+    return code;
   } finally {
     if (child !== undefined) await stopSolver(child);
     if (tempDir !== undefined) rmSync(tempDir, { recursive: true, force: true });
@@ -156,10 +159,22 @@ async function loadView<T>(specifier: string, name: string, command: string): Pr
   return view as T;
 }
 
+/** The solver gets no terminal: a node process restores the terminal settings it found at start-up
+ * when it exits, which would undo the dashboard's raw mode if it shared the terminal. Its error
+ * output is kept (first 4 KiB) and shown if it fails. */
 function startSolver(args: DemoProcessArguments): ChildProcess {
   const script = fileURLToPath(new URL('../demo/demo-solver-process.js', import.meta.url));
   const { format, scenario, rayleigh, cells, out, rate } = args;
-  return fork(script, [JSON.stringify({ format, scenario, rayleigh, cells, out, rate })], { stdio: ['ignore', 'ignore', 'inherit', 'ipc'] });
+  return fork(script, [JSON.stringify({ format, scenario, rayleigh, cells, out, rate })], { stdio: ['ignore', 'ignore', 'pipe', 'ipc'] });
+}
+
+function collectText(child: ChildProcess): () => string {
+  let text = '';
+  child.stderr?.setEncoding('utf8');
+  child.stderr?.on('data', (chunk: string) => {
+    if (text.length < 4096) text += chunk;
+  });
+  return () => text;
 }
 
 /** Ask the solver to stop and wait for it (it finishes its current write first). */
