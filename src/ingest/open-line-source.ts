@@ -249,9 +249,7 @@ class LogLineSource implements LineSource {
   /** gzip by its magic number. A `.gz` name on plain text is read as text, with a warning. */
   private async isGzip(path: string, handle: FileHandle, stats: Stats, sink: LineSink): Promise<boolean> {
     if (stats.size < 2) return false;
-    const head = Buffer.alloc(2);
-    await handle.read(head, 0, 2, 0);
-    const gzip = startsWithGzipMagic(head);
+    const gzip = startsWithGzipMagic(await readHead(handle));
     if (!gzip && /\.gz$/i.test(path)) {
       sink.onEvent({ type: 'warning', message: `${path} is named .gz but is not gzip data; reading it as text` });
     }
@@ -262,7 +260,8 @@ class LogLineSource implements LineSource {
   private async followFile(path: string, index: number, sink: LineSink, progress: ProgressReporter): Promise<void> {
     // A missing file is waited for; any other failure is an error now.
     const opened = await this.openForReading(path, true);
-    if (opened && (!opened.stats.isFile() || await this.isGzip(path, opened.handle, opened.stats, sink))) {
+    const unfollowable = opened !== undefined && (!opened.stats.isFile() || startsWithGzipMagic(await readHead(opened.handle)));
+    if (opened && unfollowable) {
       // Compressed data and pipes cannot be followed by offset: read them to their end.
       try {
         sink.onEvent({ type: 'opened', path, index });
@@ -307,6 +306,13 @@ class LogLineSource implements LineSource {
     }
     if (failed) throw fatal;
   }
+}
+
+/** The first two bytes of a file (fewer if it is shorter), for the gzip magic number. */
+async function readHead(handle: FileHandle): Promise<Buffer> {
+  const head = Buffer.alloc(2);
+  const { bytesRead } = await handle.read(head, 0, 2, 0);
+  return head.subarray(0, bytesRead);
 }
 
 function deliver(sink: LineSink, lines: string[]): void {

@@ -192,6 +192,28 @@ describe('following a log as it grows', () => {
     await expect(done).rejects.toBe(failure);
   });
 
+  it('waits for the last file of a chain after reading the earlier ones', async () => {
+    const paths = [tmp.path('before-restart.log'), tmp.path('after-restart.log')];
+    writeFileSync(paths[0], 'iter=1\niter=2\n');
+    const { sink } = follow(paths);
+    await waitUntil('the waiting event', hasEvent(sink, 'waiting'));
+    writeFileSync(paths[1], 'iter=1\n');
+    await waitUntil('the restarted run', () => sink.lines.length === 3);
+    expect(sink.lines).toEqual(['iter=1', 'iter=2', 'iter=1']);
+    expect(sink.events).toEqual([{ type: 'opened', path: paths[0], index: 0 }, { type: 'waiting', path: paths[1] }, { type: 'opened', path: paths[1], index: 1 }]);
+  });
+
+  it('sees a rename-over replacement when polling', async () => {
+    const path = tmp.path('polled-replace.log');
+    writeFileSync(path, 'old\n');
+    const { sink } = follow([path], { pollMs: 50 });
+    await waitUntil('the old file', has(sink, 'old'));
+    writeFileSync(tmp.path('polled-replace.tmp'), 'new\n');
+    renameSync(tmp.path('polled-replace.tmp'), path);
+    await waitUntil('the new file', has(sink, 'new'));
+    expect(sink.eventTypes()).toEqual(['opened', 'replaced']);
+  });
+
   it('polls when asked (network file systems): appends and truncation are seen without events', async () => {
     const path = tmp.path('polled.log');
     writeFileSync(path, 'iter=1\n');
