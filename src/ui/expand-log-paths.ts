@@ -1,7 +1,8 @@
 /**
  * Turn what the person typed after `settle watch` into log files: a file stays as it is (it may not
- * exist yet: the monitor waits for it), a folder becomes the logs in it, and a quoted glob (`*` and
- * `?` in any path segment, no `**`) becomes the files it matches. Reads directories only.
+ * exist yet: the monitor waits for it), a folder becomes the logs in it (hidden files left out), and
+ * a quoted glob (`*` and `?` in any path segment, no `**`) becomes the files it matches. Reads
+ * directories only.
  */
 import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
@@ -76,7 +77,7 @@ export function expandLogPaths(inputs: readonly string[]): string[] {
       if (matches.length === 0) throw new UsageError(`no file matches '${input}'`, 'check the pattern (settle expands * and ? itself when quoted)');
       out.push(...matches);
     } else if (isDirectory(input)) {
-      const logs = listDirectory(input).filter((name) => LOG_FILE_PATTERN.test(name)).map((name) => path.join(input, name)).filter(isFile);
+      const logs = listDirectory(input).filter((name) => !name.startsWith('.') && LOG_FILE_PATTERN.test(name)).map((name) => path.join(input, name)).filter(isFile);
       if (logs.length === 0) throw new UsageError(`folder '${input}' holds no logs`, 'settle looks for *.log, *.out, *.txt, *.csv, *.jsonl and *.dat files (also .gz); name the files instead');
       out.push(...logs);
     } else {
