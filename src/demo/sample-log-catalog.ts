@@ -163,9 +163,9 @@ export function buildSampleLogs(): SampleLog[] {
     why: 'healthy convergence, read through gzip' },
   gzipSync(encoder.encode(cavityText('healthy', 'jsonl', 16)), { level: 9 }));
   add({ file: 'cavity-restart.table.log', parser: 'settle-table', expected: 'converged',
-    producer: 'demo cavity solver, Ra 1e4, grid 16×16, healthy: stopped at iteration 600, restarted from the checkpoint at 400 (the counter goes back, the header is printed again) and run to the end',
+    producer: 'demo cavity solver, Ra 1e4, grid 16×16, healthy: stopped at iteration 300, restarted from the checkpoint at 200 (the counter goes back, the header is printed again) and run to the end',
     why: 'after the restart the run carries on converging to the target' },
-  restartText(16, 400, 600));
+  restartText(16, 200, 300));
   add({ file: 'cavity-cut-off.kv.log', parser: 'settle-kv', expected: 'converging',
     producer: `${cavity}, healthy, the solver killed during iteration 500: the last line is cut in the middle of a number and has no line end`,
     why: 'residuals are falling steadily but have not yet dropped three decades' },

@@ -39,12 +39,12 @@ describe('buildSampleLogs', () => {
     expect(JSON.parse(lines[0])).toMatchObject({ iter: 1, res_psi: 1, res_omega: 1, res_T: 1 });
   });
 
-  it('writes a restart: the counter goes back from 600 to 401 right after a repeated header', () => {
+  it('writes a restart: the counter goes back from 300 to 201 right after a repeated header', () => {
     const iters = text('cavity-restart.table.log').trimEnd().split('\n').filter((l) => /^\s+\d/.test(l)).map((l) => Number(l.trim().split(/\s+/)[0]));
     const back = iters.findIndex((v, k) => k > 0 && v < iters[k - 1]);
-    expect([iters[back - 1], iters[back]]).toEqual([600, 401]);
+    expect([iters[back - 1], iters[back]]).toEqual([300, 201]);
     const lines = text('cavity-restart.table.log').split('\n');
-    const at = lines.findIndex((l) => /^\s+600\s/.test(l));
+    const at = lines.findIndex((l) => /^\s+300\s/.test(l));
     expect(lines[at + 1].trim().startsWith('iter')).toBe(true);
   });
 
