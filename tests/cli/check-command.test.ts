@@ -103,10 +103,8 @@ describe('settle check (post-mortem)', () => {
 
   it.each([
     ['a missing log', () => [join(dir, 'nope.log')], 3, /cannot read .*nope\.log: no such file/],
-    ['a folder for a log', () => [dir], 3, /cannot read .*: not a file/],
     ['a missing log among good ones', () => [logs.converged, join(dir, 'nope.log')], 3, /no such file/],
-    ['standard input twice', () => ['-', '-'], 2, /standard input \(-\) can be read only once/],
-    ['a bad criteria flag', () => ['--window', 'ten', logs.converged], 2, /--window needs a positive whole number/],
+  // More cases run in-process in check-bad-input.test.ts.
   ])('refuses %s with one line and a hint', async (_label, args, code, message) => {
     const result = await runSettle(['check', ...args()]);
     expect(result.code).toBe(code);
