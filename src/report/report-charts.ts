@@ -17,7 +17,23 @@ export interface ReportChart {
   readonly svg: string;
 }
 
-/** At most this many quantity charts per run (the table lists every quantity). */
+/** A band thinner than this fraction of the whole history's range gets a chart of the settled part. */
+export const ZOOM_BELOW = 0.05;
+
+function finiteRange(c: SeriesColumn): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < c.length; i++) {
+    const v = c.values[i];
+    if (Number.isFinite(v)) {
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+    }
+  }
+  return hi > lo ? hi - lo : 0;
+}
+
+/** At most this many quantities get charts per run (the table lists every quantity). */
 export const MAX_QUANTITY_CHARTS = 12;
 
 const seriesOf = (column: SeriesColumn) => ({ name: column.info.label ?? column.info.name, x: column.iterations, y: column.values, length: column.length });
@@ -62,13 +78,32 @@ export function reportCharts(run: ReportRun, runIndex: number, width = 760): Rep
     const name = c.info.label ?? c.info.name;
     const title = `${name} — ${run.log}`;
     const description = `${name} against iteration${bands.length ? `, with its settled mean and 95 % confidence band from iteration ${formatNumber(bands[0].fromX)}` : ' (not settled: no band)'}.`;
+    const yLabel = c.info.unit ? `${name} [${c.info.unit}]` : name;
     charts.push({
       title, description,
       svg: renderLineChartSvg({
-        title, description, yScale: 'linear', xLabel: 'iteration', yLabel: c.info.unit ? `${name} [${c.info.unit}]` : name, width, height: 260,
+        title, description, yScale: 'linear', xLabel: 'iteration', yLabel, width, height: 260,
         series: [seriesOf(c)], bands, verticalRules: restarts, idPrefix: `run${runIndex}-q${i}`,
       }),
     });
+    // When the band is too thin to see against the whole history, add a chart of the settled part.
+    const band = bands[0];
+    if (band !== undefined && band.high - band.low < ZOOM_BELOW * finiteRange(c)) {
+      let from = 0;
+      while (from < c.length && c.iterations[from] < band.fromX) from++;
+      if (c.length - from >= 2) {
+        const zoomTitle = `${name}, settled part — ${run.log}`;
+        const zoomDescription = `${name} from iteration ${formatNumber(band.fromX)} on, with its settled mean and 95 % confidence band.`;
+        charts.push({
+          title: zoomTitle, description: zoomDescription,
+          svg: renderLineChartSvg({
+            title: zoomTitle, description: zoomDescription, yScale: 'linear', xLabel: 'iteration', yLabel, width, height: 260,
+            series: [{ name, x: c.iterations.subarray(from, c.length), y: c.values.subarray(from, c.length) }],
+            bands, verticalRules: restarts.filter((r) => r.value >= band.fromX), idPrefix: `run${runIndex}-q${i}-settled`,
+          }),
+        });
+      }
+    }
   });
   return charts;
 }

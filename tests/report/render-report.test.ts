@@ -55,7 +55,7 @@ describe('Markdown report', () => {
 
   it('embeds each chart as a data: URI SVG image whose XML is well formed', () => {
     const images = [...md.matchAll(/!\[([^\]]+)\]\(data:image\/svg\+xml;base64,([A-Za-z0-9+/=]+)\)/g)];
-    expect(images).toHaveLength(2); // residuals + one quantity
+    expect(images).toHaveLength(3); // residuals, nu_hot, nu_hot's settled part (its band is thin)
     for (const [, alt, data] of images) {
       const svg = Buffer.from(data, 'base64').toString('utf8');
       expect(xmlProblems(svg)).toEqual([]);
@@ -91,6 +91,27 @@ describe('Markdown report', () => {
   });
 });
 
+describe('quantity charts', () => {
+  it('add a chart of the settled part only when the band is too thin to see against the whole history (< 5 % of its range)', () => {
+    const thin = renderReport(input, 'html');
+    expect(thin).toContain('nu_hot, settled part — case/run.log');
+    const run = fixtureRun();
+    // a band of ±0.02 on a history spanning 0.5 is 8 % of the range: visible, no extra chart
+    const wide = { ...run, diagnosis: { ...run.diagnosis, series: run.diagnosis.series.map((s) => (s.name === 'nu_hot' ? { ...s, halfWidth: 0.02 } : s)) } };
+    const page = renderReport(fixtureInput([wide]), 'html');
+    expect(page).not.toContain('settled part');
+    expect(page.match(/<svg /g)).toHaveLength(2);
+  });
+
+  it('draw no band for a quantity that has not settled', () => {
+    const run = fixtureRun();
+    const unsettled = { ...run, diagnosis: { ...run.diagnosis, series: run.diagnosis.series.map((s) => (s.name === 'nu_hot' ? { name: s.name, kind: s.kind, state: 'converging' as const, last: s.last, reason: 'still moving' } : s)) } };
+    const page = renderReport(fixtureInput([unsettled]), 'html');
+    expect(page).toContain('(not settled: no band)');
+    expect(page).not.toMatch(/fill-opacity="0.15"[^>]*><title>settled mean/);
+  });
+});
+
 describe('HTML report', () => {
   const html = renderReport(input, 'html');
 
@@ -98,7 +119,7 @@ describe('HTML report', () => {
     expect(html.startsWith('<!DOCTYPE html>')).toBe(true);
     expect(html).toContain('<style>');
     expect(html).not.toMatch(/<script|<link |src="http|href="http|@import|url\(http/);
-    expect(html.match(/<svg /g)).toHaveLength(2);
+    expect(html.match(/<svg /g)).toHaveLength(3);
   });
 
   it('escapes text taken from the log', () => {
@@ -110,8 +131,8 @@ describe('HTML report', () => {
 
   it('gives each inline chart its own clip-path id', () => {
     const ids = [...html.matchAll(/clipPath id="([^"]+)"/g)].map((m) => m[1]);
-    expect(ids).toHaveLength(2);
-    expect(new Set(ids).size).toBe(2);
+    expect(ids).toHaveLength(3);
+    expect(new Set(ids).size).toBe(3);
   });
 
   it('writes each SVG as well-formed XML', () => {
