@@ -50,8 +50,8 @@ export function formatSpecList(specs: readonly LoadedSpec[], configDir: string):
 interface SeriesTally { kind: SeriesKind; unit?: string; count: number; nonFinite: number; first: number; last: number }
 
 async function testSpec(specArg: string, logs: readonly string[], overrides: { residual: string[]; quantity: string[] }): Promise<string> {
-  const [{ loadParserSpecs }, { chooseParser }, { openLineSource }] = await Promise.all([
-    import('../parse/load-parser-specs.js'), import('../parse/choose-parser.js'), import('../ingest/open-line-source.js'),
+  const [{ loadParserSpecs }, { chooseParser }, { readLogLines }] = await Promise.all([
+    import('../parse/load-parser-specs.js'), import('../parse/choose-parser.js'), import('../parse/read-log-lines.js'),
   ]);
   const isFile = specArg.endsWith('.json') || isExistingFile(specArg);
   const specs = loadParserSpecs({ files: isFile ? [specArg] : [] });
@@ -78,14 +78,10 @@ async function testSpec(specArg: string, logs: readonly string[], overrides: { r
       tally.last = value;
     }
   });
-  const warnings: string[] = [];
-  const source = openLineSource({ paths: logs, follow: false });
-  await source.run({
+  await readLogLines(logs, {
     onLines: (lines) => { for (const line of lines) parser.pushLine(line); },
-    onEvent: (event) => {
-      if ((event.type === 'opened' && event.index > 0) || event.type === 'truncated' || event.type === 'replaced') parser.noteRestart();
-      if (event.type === 'warning') warnings.push(event.message);
-    },
+    // The next file of a restart chain is a restart.
+    onFile: (_path, index) => { if (index > 0) parser.noteRestart(); },
   });
   parser.finish();
   const stats = parser.stats();
@@ -98,10 +94,9 @@ async function testSpec(specArg: string, logs: readonly string[], overrides: { r
     `spec:      ${loaded.id} (${loaded.builtIn ? 'built-in' : loaded.file})`,
     `log:       ${logs.join(' + ')}`,
     `lines:     ${stats.lines} read, ${stats.unmatched} not matched`,
-    `records:   ${stats.records}${firstIteration !== undefined ? ` (iterations ${firstIteration} to ${lastIteration})` : ''}, ${stats.restarts} restart${stats.restarts === 1 ? '' : 's'}`,
+    `records:   ${stats.records}${firstIteration !== undefined ? ` (first iteration ${firstIteration}, last ${lastIteration})` : ''}, ${stats.restarts} restart${stats.restarts === 1 ? '' : 's'}`,
   ];
   if (failure !== undefined) out.push(`failure:   ${failure}`);
-  for (const warning of warnings) out.push(`warning:   ${warning}`);
   if (tallies.size === 0) {
     out.push('series:    none: the spec matched no values in this log');
   } else {
