@@ -10,6 +10,7 @@ import type { Criteria } from '../analysis/criteria.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
+import { SettleError } from '../errors.js';
 
 export interface WatchOptions {
   readonly paths: string[];
@@ -66,11 +67,14 @@ export async function runWatch(options: WatchOptions): Promise<number> {
     keys = ownTty;
   }
   const { openDashboard } = await import('../ui/dashboard-screen.js');
-  const dashboard = await openDashboard({ runs, input: keys, output: stdout, env: options.env });
-  const running = runs.map((run) => run.monitor.run().catch((error: unknown) => {
-    // An unreadable log must not take the other runs (or the terminal) down: say it in the panel.
-    run.monitor.stop().catch(() => undefined);
-    return error;
+  // The recent span shows five judging windows, and at least 1000 iterations.
+  const recentIterations = Math.max(1000, 5 * options.criteria.window);
+  const dashboard = await openDashboard({ runs, input: keys, output: stdout, env: options.env, recentIterations });
+  const running = runs.map((run, index) => run.monitor.run().catch((error: unknown) => {
+    // An unreadable log must not take the other runs (or the terminal) down: say it in its panel.
+    const message = error instanceof Error ? error.message : String(error);
+    const hint = error instanceof SettleError && error.hint !== undefined ? ` (${error.hint})` : '';
+    dashboard.note(index, `cannot read this log: ${message}${hint}`);
   }));
   try {
     await dashboard.done;

@@ -56,6 +56,8 @@ export interface Dashboard {
   frames(): number;
   /** The characters on screen now, one string per row (for tests). */
   text(): string[];
+  /** Show news about run `index` (e.g. why its log cannot be read) in its verdict panel. */
+  note(index: number, message: string): void;
 }
 
 /** The terminal type blessed is told to use: its own terminfo reader cannot parse current ncurses
@@ -335,7 +337,14 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
     const lines = (screen as unknown as { lines: [unknown, string][][] }).lines;
     return lines.map((row) => row.map((cell) => cell[1]).join(''));
   };
-  return { done, close, frames: () => loop.frames, text };
+  const note = (index: number, message: string): void => {
+    const state = runs[index];
+    if (state === undefined) return;
+    state.note = message;
+    state.version++;
+    loop.invalidate();
+  };
+  return { done, close, frames: () => loop.frames, text, note };
 }
 
 function withQuietStderr<T>(action: () => T): T {

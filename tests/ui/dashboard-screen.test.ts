@@ -103,6 +103,13 @@ describe('openDashboard on a fake terminal', () => {
     await until(() => screenText().includes('worst first'), 'the overview again');
   });
 
+  it('shows news about a run, such as a log that cannot be read', async () => {
+    const { dashboard, screenText } = await start();
+    await until(() => screenText().includes('res_p'), 'a first frame');
+    dashboard.note(0, 'cannot read this log: permission denied');
+    await until(() => screenText().includes('cannot read this log: permission denied'), 'the note');
+  });
+
   it('restores the terminal and rejects done when drawing fails', async () => {
     const { terminal, monitors, dashboard, screenText } = await start();
     await until(() => screenText().includes('res_p'), 'a first frame');
