@@ -35,7 +35,7 @@ describe('settle report', () => {
     expect(readdirSync(dir).sort()).toEqual([...before, 'report.md'].sort());
     const md = readFileSync(out, 'utf8');
     const images = [...md.matchAll(/!\[[^\]]+\]\(data:image\/svg\+xml;base64,([A-Za-z0-9+/=]+)\)/g)];
-    expect(images).toHaveLength(2); // residuals, nu_hot
+    expect(images).toHaveLength(3); // residuals, nu_hot, nu_hot's settled part
     const residualChart = Buffer.from(images[0][1], 'base64').toString('utf8');
     expect(xmlProblems(residualChart)).toEqual([]);
     expect(residualChart).toContain('>restart</text>');
@@ -46,7 +46,7 @@ describe('settle report', () => {
     const result = await runCli(['report', logA, '--format', 'html']);
     expect(result.code).toBe(0);
     expect(result.stdout.startsWith('<!DOCTYPE html>')).toBe(true);
-    expect(result.stdout.match(/<svg /g)).toHaveLength(2);
+    expect(result.stdout.match(/<svg /g)).toHaveLength(3);
     expect(result.stdout).not.toMatch(/<script|src="http|href="http/);
   });
 
