@@ -291,7 +291,7 @@ function seriesRow(
   else if (d?.ordersPerKilo !== undefined && Number.isFinite(d.ordersPerKilo)) {
     const change = -d.ordersPerKilo;
     trend = `${change > 0 ? '+' : change < 0 ? '-' : ''}${Math.abs(change).toFixed(Math.abs(change) < 10 ? 1 : 0)}/1k`;
-  } else if (d?.iterationError !== undefined && Number.isFinite(d.iterationError)) trend = `err ${formatValue(d.iterationError, 2)}`;
+  } else if (d?.iterationError !== undefined && Number.isFinite(d.iterationError)) trend = `err ${formatValue(Math.abs(d.iterationError), 2)}`;
   let etaIterations = '';
   let etaTime = '';
   if (d?.eta !== undefined && Number.isFinite(d.eta) && d.eta > 0) {

@@ -32,8 +32,9 @@ async function main(): Promise<void> {
     const lines = readFileSync(source, 'utf8').split('\n');
     const first = Math.floor(lines.length * 0.3);
     writeFileSync(log, `${lines.slice(0, first).join('\n')}\n`);
-    tmux('new-session', '-d', '-s', 'picture', '-x', String(COLS), '-y', String(ROWS), '-e', 'TERM=xterm-256color',
-      `'${process.execPath}' '${cli}' watch '${log}'; sleep 5`);
+    // Started in the log's folder with a relative path, so the header shows a short name.
+    tmux('new-session', '-d', '-s', 'picture', '-x', String(COLS), '-y', String(ROWS), '-c', dir, '-e', 'TERM=xterm-256color',
+      `'${process.execPath}' '${cli}' watch '${path.basename(log)}'; sleep 5`);
     // Let the log grow for about three seconds, as a running solver's would.
     const steps = 30;
     const rest = lines.slice(first);
