@@ -126,18 +126,26 @@ class SpecParser implements RecordParser {
   private readonly lexed: number[] = [];
   private pairKind: SeriesKind | undefined;
   private pairsSeen = 0;
-  /** Names seen at each pair position on the previous line, so that the usual case (the same
-   * names in the same order on every line) allocates no name strings. */
+  /** Names seen at each pair position on the previous line (kept by scanKeyValues), and what the
+   * parser found out about each: its counter, or that it is a known series. */
   private readonly pairNames: string[] = [];
-  private readonly onPair = (line: string, nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number): void => {
+  private readonly slotName: string[] = [];
+  private readonly slotCounter: (CounterName | undefined)[] = [];
+  private readonly onPair = (name: string, line: string, valueStart: number, valueEnd: number, index: number): boolean => {
     const value = lexNumberIn(line, valueStart, valueEnd);
-    if (value === undefined) return;
-    let name = this.pairNames[index];
-    if (name === undefined || name.length !== nameEnd - nameStart || !line.startsWith(name, nameStart)) {
-      name = line.slice(nameStart, nameEnd);
-      this.pairNames[index] = name;
+    if (value === undefined) return false;
+    if (this.slotName[index] === name) {
+      // Seen at this position before: a known counter or an already registered series.
+      this.pairsSeen++;
+      const counter = this.slotCounter[index];
+      if (counter !== undefined) this.assembler.setCounter(counter, value);
+      else this.assembler.current().set(name, value);
+      return true;
     }
     this.addValue(name, value, undefined);
+    this.slotName[index] = name;
+    this.slotCounter[index] = this.plan.counterOf.get(name);
+    return true;
   };
 
   constructor(private readonly plan: Plan, sink: RecordSink) {
@@ -170,7 +178,7 @@ class SpecParser implements RecordParser {
         if (rule.startsRecord) assembler.close();
         this.pairKind = rule.kind;
         this.pairsSeen = 0;
-        scanKeyValues(line, rule.assign, this.onPair);
+        scanKeyValues(line, rule.assign, this.onPair, this.pairNames);
         if (this.pairsSeen > 0) matched = true;
         continue;
       }

@@ -206,9 +206,10 @@ function pairCandidate(lines: readonly string[], assign: string): Candidate | un
   let rows = 0;
   for (const line of lines) {
     const names = new Set<string>();
-    scanKeyValues(line, assign, (text, nameStart, nameEnd, valueStart, valueEnd) => {
-      const name = text.slice(nameStart, nameEnd);
-      if (/^[A-Za-z_]/.test(name) && lexNumber(text.slice(valueStart, valueEnd)) !== undefined) names.add(name);
+    scanKeyValues(line, assign, (name, text, valueStart, valueEnd) => {
+      if (lexNumber(text.slice(valueStart, valueEnd)) === undefined) return false;
+      if (/^[A-Za-z_]/.test(name)) names.add(name);
+      return true;
     });
     if (names.size === 0) continue;
     rows++;

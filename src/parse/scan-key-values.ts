@@ -2,14 +2,23 @@
  * The fast name/value scanner: finds `name=value` tokens anywhere in a line, also written with
  * blanks around the sign (`name = value`) or another sign (`name: value`). Names run back from the
  * sign to the previous blank, comma or semicolon and must not start with a digit (so times such as
- * `12:30:05` are not pairs); values run forward to the next one.
- * Cost: O(line length); allocates nothing itself: the visitor gets positions, so the caller can
- * lex the value in place and reuse the name string it saw on the line before.
+ * `12:30:05` are not pairs); values run forward to the next blank, comma or semicolon.
+ *
+ * Method: the sign and the next space are found with `indexOf` (native search); the visitor first
+ * sees the value up to the next space, which is the whole value on well-formed lines. Only when it
+ * rejects that text and the text holds another delimiter (`a=1,b=2`, tabs) is the value cut again
+ * character by character and offered once more.
+ * Names are remembered by their position among the pairs of a line (`names`, kept by the caller):
+ * when the name at that position is the same as on the line before (the usual case in a log), it
+ * is recognised with one comparison and the same string is handed over again, without a new
+ * allocation; the caller can then recognise it by identity.
+ * Cost: O(line length); allocates only names that differ from the previous line's.
  */
 
-/** Called for each pair found, with the name at [nameStart, nameEnd) and the value at
- * [valueStart, valueEnd) of `line`, and the pair's index on the line (0, 1, ...). */
-export type PairVisitor = (line: string, nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number) => void;
+/** Called for each candidate pair, with its name, the value at [valueStart, valueEnd) of `line`,
+ * and the index of the pair on the line (0, 1, ...). Returns whether it took the pair (a value it
+ * could read). */
+export type PairVisitor = (name: string, line: string, valueStart: number, valueEnd: number, index: number) => boolean;
 
 function isDelimiter(code: number): boolean {
   return code === 32 || code === 9 || code === 44 || code === 59 || code === 13;
@@ -19,31 +28,47 @@ function isBlank(code: number): boolean {
   return code === 32 || code === 9;
 }
 
-/** Visits every `name<assign>value` pair of the line; returns how many were visited. */
-export function scanKeyValues(line: string, assign: string, visit: PairVisitor): number {
+/** Visits every `name<assign>value` pair of the line; returns how many the visitor took. */
+export function scanKeyValues(line: string, assign: string, visit: PairVisitor, names: string[] = []): number {
   const length = line.length;
   const step = assign.length;
   let pos = 0;
-  let found = 0;
+  let taken = 0;
   while (pos < length) {
     const at = line.indexOf(assign, pos);
     if (at < 0) break;
     let nameEnd = at;
     while (nameEnd > pos && isBlank(line.charCodeAt(nameEnd - 1))) nameEnd--;
-    let nameStart = nameEnd;
-    while (nameStart > pos && !isDelimiter(line.charCodeAt(nameStart - 1))) nameStart--;
+    let name = names[taken];
+    let nameStart = name === undefined ? -1 : nameEnd - name.length;
+    if (nameStart < pos || !line.startsWith(name, nameStart) || (nameStart > pos && !isDelimiter(line.charCodeAt(nameStart - 1)))) {
+      nameStart = nameEnd;
+      while (nameStart > pos && !isDelimiter(line.charCodeAt(nameStart - 1))) nameStart--;
+      name = undefined;
+    }
     let valueStart = at + step;
     while (valueStart < length && isBlank(line.charCodeAt(valueStart))) valueStart++;
-    let valueEnd = valueStart;
-    while (valueEnd < length && !isDelimiter(line.charCodeAt(valueEnd))) valueEnd++;
-    if (nameEnd > nameStart && valueEnd > valueStart) {
-      const first = line.charCodeAt(nameStart);
-      if (!(first >= 48 && first <= 57)) {
-        visit(line, nameStart, nameEnd, valueStart, valueEnd, found);
-        found++;
+    const space = line.indexOf(' ', valueStart);
+    let valueEnd = space < 0 ? length : space;
+    const first = line.charCodeAt(nameStart);
+    if (nameEnd > nameStart && valueEnd > valueStart && !(first >= 48 && first <= 57)) {
+      if (name === undefined) names[taken] = name = line.slice(nameStart, nameEnd);
+      if (visit(name, line, valueStart, valueEnd, taken)) {
+        taken++;
+      } else {
+        let end = valueStart;
+        while (end < valueEnd && !isDelimiter(line.charCodeAt(end))) end++;
+        if (end < valueEnd) {
+          valueEnd = end;
+          if (end > valueStart && visit(name, line, valueStart, valueEnd, taken)) taken++;
+        }
       }
+    } else if (valueEnd > valueStart) {
+      let end = valueStart;
+      while (end < valueEnd && !isDelimiter(line.charCodeAt(end))) end++;
+      valueEnd = end;
     }
     pos = valueEnd > at + step ? valueEnd : at + step;
   }
-  return found;
+  return taken;
 }
