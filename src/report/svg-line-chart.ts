@@ -168,9 +168,9 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
   const log = spec.yScale === 'log';
   const legendRows = Math.max(1, Math.ceil((spec.series.length + (spec.bands?.length ?? 0)) / 4));
   const top = MARGIN.top + LEGEND_ROW * legendRows;
-  const plotW = Math.max(40, width - MARGIN.left - MARGIN.right);
   const plotH = Math.max(40, height - top - MARGIN.bottom);
-  const prepared = spec.series.map((s) => prepare(s, log, plotW * 2));
+  // About two points per pixel of the plot's width (the left margin is settled below, by the labels).
+  const prepared = spec.series.map((s) => prepare(s, log, Math.max(40, width - MARGIN.left - MARGIN.right) * 2));
 
   // Extents, in drawing units.
   let xMin = Infinity;
@@ -213,7 +213,6 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
     yMax = log ? 0 : 1;
   }
 
-  const x = scaleLinear().domain([xMin, xMax]).range([MARGIN.left, MARGIN.left + plotW]);
   let yTicks: { at: number; label: string }[];
   let yOf: (drawValue: number) => number;
   if (log) {
@@ -226,16 +225,23 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
     yOf = (d) => scale(10 ** d);
     yTicks = decadeTicks(10 ** lo, 10 ** hi).map((e) => ({ at: scale(10 ** e), label: decadeLabel(e) }));
   } else {
-    if (yMax === yMin) {
-      const pad = Math.abs(yMin) * 0.01 || 1;
-      yMin -= pad;
-      yMax += pad;
+    // A span too small to label (a constant, or float noise around one value) is widened to a
+    // relative 1e-6 around its centre so ticks stay readable.
+    const minimumSpan = Math.max(Math.abs(yMin + yMax) * 1e-6, 1e-12);
+    if (yMax - yMin < minimumSpan) {
+      const centre = (yMin + yMax) / 2;
+      yMin = centre - minimumSpan;
+      yMax = centre + minimumSpan;
     }
     const scale = scaleLinear().domain([yMin, yMax]).nice(5).range([top + plotH, top]);
     const format = scale.tickFormat(5);
     yOf = (d) => scale(d);
     yTicks = scale.ticks(5).map((t) => ({ at: scale(t), label: format(t) }));
   }
+  // Left margin wide enough for the longest y label (about 6.5 px per character at 11 px).
+  const left = Math.max(MARGIN.left, Math.ceil(28 + 6.5 * Math.max(0, ...yTicks.map((t) => t.label.length))));
+  const plotW = Math.max(40, width - left - MARGIN.right);
+  const x = scaleLinear().domain([xMin, xMax]).range([left, left + plotW]);
   const xFormat = x.tickFormat(6);
   const xTicks = x.ticks(6).map((t) => ({ at: x(t), label: xFormat(t) }));
   const clipY = (v: number): number => Math.min(top + plotH, Math.max(top, v));
@@ -248,21 +254,21 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
   out.push(`<title>${title}</title>`);
   if (spec.description) out.push(`<desc>${escapeXml(spec.description)}</desc>`);
   out.push(`<rect x="0" y="0" width="${width}" height="${height}" fill="#ffffff"/>`);
-  out.push(`<text x="${MARGIN.left}" y="18" ${FONT} font-size="14" font-weight="600" fill="#222">${title}</text>`);
-  out.push(`<defs><clipPath id="${clipId}"><rect x="${MARGIN.left}" y="${top}" width="${plotW}" height="${plotH}"/></clipPath></defs>`);
+  out.push(`<text x="${left}" y="18" ${FONT} font-size="14" font-weight="600" fill="#222">${title}</text>`);
+  out.push(`<defs><clipPath id="${clipId}"><rect x="${left}" y="${top}" width="${plotW}" height="${plotH}"/></clipPath></defs>`);
 
   // Grid and axes.
   out.push(`<g ${FONT} font-size="11" fill="#444">`);
   for (const t of yTicks) {
-    out.push(`<line x1="${MARGIN.left}" x2="${MARGIN.left + plotW}" y1="${num(t.at)}" y2="${num(t.at)}" stroke="#e3e3e3" stroke-width="1"/>`);
-    out.push(`<text class="tick-y" x="${MARGIN.left - 6}" y="${num(t.at + 4)}" text-anchor="end">${escapeXml(t.label)}</text>`);
+    out.push(`<line x1="${left}" x2="${left + plotW}" y1="${num(t.at)}" y2="${num(t.at)}" stroke="#e3e3e3" stroke-width="1"/>`);
+    out.push(`<text class="tick-y" x="${left - 6}" y="${num(t.at + 4)}" text-anchor="end">${escapeXml(t.label)}</text>`);
   }
   for (const t of xTicks) {
     out.push(`<line x1="${num(t.at)}" x2="${num(t.at)}" y1="${top + plotH}" y2="${top + plotH + 4}" stroke="#444" stroke-width="1"/>`);
     out.push(`<text class="tick-x" x="${num(t.at)}" y="${top + plotH + 17}" text-anchor="middle">${escapeXml(t.label)}</text>`);
   }
-  out.push(`<rect x="${MARGIN.left}" y="${top}" width="${plotW}" height="${plotH}" fill="none" stroke="#888" stroke-width="1"/>`);
-  out.push(`<text x="${MARGIN.left + plotW / 2}" y="${height - 6}" text-anchor="middle">${escapeXml(spec.xLabel)}</text>`);
+  out.push(`<rect x="${left}" y="${top}" width="${plotW}" height="${plotH}" fill="none" stroke="#888" stroke-width="1"/>`);
+  out.push(`<text x="${left + plotW / 2}" y="${height - 6}" text-anchor="middle">${escapeXml(spec.xLabel)}</text>`);
   if (spec.yLabel) {
     out.push(`<text transform="translate(14 ${num(top + plotH / 2)}) rotate(-90)" text-anchor="middle">${escapeXml(spec.yLabel)}</text>`);
   }
@@ -308,19 +314,28 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
 
   // Rules on top, with labels.
   out.push(`<g ${FONT} font-size="10" fill="#333">`);
-  for (const rule of spec.horizontalRules ?? []) {
-    const at = yOf(drawOf(rule.value));
-    if (!Number.isFinite(at)) continue;
-    out.push(`<line x1="${MARGIN.left}" x2="${MARGIN.left + plotW}" y1="${num(at)}" y2="${num(at)}" stroke="#222" stroke-width="1.2" stroke-dasharray="10 3 2 3"/>`);
-    out.push(`<text x="${MARGIN.left + plotW - 4}" y="${num(at - 4)}" text-anchor="end">${escapeXml(rule.label)}</text>`);
+  // Labels of close rules are pushed apart (11 px, top to bottom) so they stay readable.
+  const placed = (spec.horizontalRules ?? [])
+    .map((rule) => ({ rule, at: yOf(drawOf(rule.value)) }))
+    .filter((p) => Number.isFinite(p.at))
+    .sort((a, b) => a.at - b.at);
+  let lastLabel = Number.NEGATIVE_INFINITY;
+  const rulesLabels: string[] = [];
+  for (const { rule, at } of placed) {
+    const labelY = Math.max(at - 4, lastLabel + 12);
+    lastLabel = labelY;
+    out.push(`<line x1="${left}" x2="${left + plotW}" y1="${num(at)}" y2="${num(at)}" stroke="#222" stroke-width="1.2" stroke-dasharray="10 3 2 3"/>`);
+    rulesLabels.push(`<text x="${left + plotW - 4}" y="${num(labelY)}" text-anchor="end" stroke="#fff" stroke-width="3" paint-order="stroke">${escapeXml(rule.label)}</text>`);
   }
+  // Labels after all the lines, with a white halo, so no line crosses a label.
+  out.push(...rulesLabels);
   for (const rule of spec.verticalRules ?? []) {
     const at = x(rule.value);
     if (!Number.isFinite(at)) continue;
     out.push(`<line x1="${num(at)}" x2="${num(at)}" y1="${top}" y2="${top + plotH}" stroke="#666" stroke-width="1" stroke-dasharray="1 3"/>`);
     out.push(`<text x="${num(at + 3)}" y="${top + 11}">${escapeXml(rule.label)}</text>`);
   }
-  if (empty) out.push(`<text x="${MARGIN.left + plotW / 2}" y="${top + plotH / 2}" text-anchor="middle" font-size="12">no drawable values</text>`);
+  if (empty) out.push(`<text x="${left + plotW / 2}" y="${top + plotH / 2}" text-anchor="middle" font-size="12">no drawable values</text>`);
   out.push('</g>');
 
   // Legend: line samples with the same colour and dash as the series.
@@ -332,7 +347,7 @@ export function renderLineChartSvg(spec: LineChartSpec): string {
   const columns = Math.max(1, Math.min(4, entries.length));
   const column = plotW / columns;
   entries.forEach((entry, i) => {
-    const lx = MARGIN.left + (i % columns) * column;
+    const lx = left + (i % columns) * column;
     const ly = MARGIN.top - 8 + Math.floor(i / columns) * LEGEND_ROW;
     if (entry.band) {
       out.push(`<rect x="${num(lx)}" y="${ly - 5}" width="22" height="9" fill="${entry.colour}" fill-opacity="0.15" stroke="${entry.colour}" stroke-dasharray="3 2"/>`);

@@ -89,6 +89,21 @@ describe('renderLineChartSvg', () => {
     expect(labels[labels.length - 1]).toBeGreaterThanOrEqual(2.5);
   });
 
+  it('widens a span too small to label (a constant up to float noise) so the ticks are distinct and short', () => {
+    const flat = renderLineChartSvg({ title: 'flat', yScale: 'linear', xLabel: 'iteration', series: [{ name: 'q', x: [1, 2, 3], y: [2.243, 2.2429999999999986, 2.243] }] });
+    const labels = tickLabels(flat);
+    expect(new Set(labels).size).toBe(labels.length);
+    expect(labels.length).toBeGreaterThanOrEqual(3);
+    for (const label of labels) expect(label.length).toBeLessThanOrEqual(9);
+  });
+
+  it('keeps labels of close target lines at least 12 px apart', () => {
+    const close = renderLineChartSvg({ ...spec, horizontalRules: [{ value: 1e-3, label: 'A' }, { value: 1.1e-3, label: 'B' }, { value: 0.9e-3, label: 'C' }] });
+    const ys = [...close.matchAll(/<text x="[\d.]+" y="([\d.]+)" text-anchor="end" stroke="#fff"[^>]*>([ABC])<\/text>/g)].map((m) => Number(m[1]));
+    expect(ys).toHaveLength(3);
+    for (let i = 1; i < ys.length; i++) expect(ys[i] - ys[i - 1]).toBeGreaterThanOrEqual(12 - 0.1);
+  });
+
   it('says so when nothing can be drawn, and still writes valid XML', () => {
     const none = renderLineChartSvg({ title: 'empty', yScale: 'log', xLabel: 'iteration', series: [{ name: 'res_p', x: [1, 2], y: [0, -1] }] });
     expect(xmlProblems(none)).toEqual([]);
