@@ -131,7 +131,7 @@ export async function runReport(options: RunReportOptions): Promise<void> {
     }
     const choice = monitor.parserChoice();
     runs.push({
-      log: monitor.label,
+      log: log === '-' ? 'standard input' : monitor.label,
       diagnosis,
       snapshot: monitor.store.snapshot(),
       parser: choice === undefined ? undefined : { id: choice.id, explanation: choice.explanation },
