@@ -33,14 +33,33 @@ export function isAlarm(state: State): boolean {
   return ALARMS.includes(state);
 }
 
-export function adviseRun(verdict: State, counted: readonly CountedSeries[], failure: string | undefined, startup: number): { advice: string; reasons: string[] } {
+/** The latest reason seen for each alarm state (kept by the run judge), for advice on a verdict that is
+ * held while no series currently shows that state. */
+export type AlarmReasons = Readonly<Partial<Record<State, string>>>;
+
+/**
+ * Advice and reasons for the verdict shown. The verdict may be one held by the confirmation rule
+ * (run-judge.ts) while no counted series shows that state any more (e.g. a run confirmed diverging
+ * whose residual now reads stalled): the advice then quotes the reason that raised the alarm
+ * (`held`), or says so plainly when none is known. Never assumes a series in the verdict's state exists.
+ */
+export function adviseRun(verdict: State, counted: readonly CountedSeries[], failure: string | undefined, startup: number,
+  held: AlarmReasons = {}): { advice: string; reasons: string[] } {
   const of = (state: State) => counted.filter((c) => c.diagnosis.state === state).map((c) => c.diagnosis);
+  /** Reason of the first series in `state`, else the remembered alarm reason, else a plain fallback. */
+  const why = (state: State, fallback: string): string => of(state)[0]?.reason ?? held[state] ?? fallback;
   const byWorst = [...counted].sort((a, b) => SEVERITY[b.diagnosis.state] - SEVERITY[a.diagnosis.state]);
   const reasons = byWorst.map((c) => c.diagnosis.reason);
   if (failure !== undefined) reasons.unshift(`the solver reported a failure: ${failure}`);
+  const heldReason = held[verdict];
+  if (isAlarm(verdict) && of(verdict).length === 0 && heldReason !== undefined) reasons.unshift(`confirmed earlier: ${heldReason}`);
   const residuals = counted.filter((c) => c.diagnosis.kind === 'residual');
   const quantities = counted.filter((c) => c.diagnosis.kind === 'quantity');
-  const settledText = (q: SeriesDiagnosis): string => q.reason.replace(/^\S+ /, `${q.name} `);
+  const settledText = (q: SeriesDiagnosis): string => q.reason.replace(/^\S+ /, `${q.name} `).replace(/ \(.*\)$/, '').replace(/; .*$/, '');
+  /** One or two settled quantities by name and value, more as a count. */
+  const settledSummary = (qs: readonly CountedSeries[]): string => qs.length <= 2
+    ? qs.map((q) => settledText(q.diagnosis)).join(' and ')
+    : `${qs.length} quantities settled to ${formatPercent(qs[0].rule.qoiTol)}`;
 
   switch (verdict) {
     case 'failed': {
@@ -48,19 +67,19 @@ export function adviseRun(verdict: State, counted: readonly CountedSeries[], fai
       return { advice: failure !== undefined ? `stop: the solver reported a failure (${failure})` : `stop: the run failed (${first?.reason ?? 'non-finite values'})`, reasons };
     }
     case 'diverging':
-      return { advice: `stop now: ${of('diverging')[0].reason}`, reasons };
+      return { advice: `stop now: ${why('diverging', 'a residual grew by decades')}`, reasons };
     case 'oscillating': {
-      const first = of('oscillating')[0];
-      return { advice: `stop: ${first.reason}; more iterations will not settle it (try stronger under-relaxation, or a transient run if the flow is physically unsteady)`, reasons };
+      return { advice: `stop: ${why('oscillating', 'a series cycles without settling')}; more iterations will not settle it (try stronger under-relaxation, or a transient run if the flow is physically unsteady)`, reasons };
     }
     case 'stalled': {
-      const first = of('stalled')[0];
+      const first = of('stalled')[0] as SeriesDiagnosis | undefined;
       const settled = quantities.length > 0 && quantities.every((q) => q.diagnosis.state === 'converged');
-      const where = first.dropDecades !== undefined ? `, ${formatDecades(first.dropDecades)} decades down` : '';
+      const where = first?.dropDecades !== undefined ? `, ${formatDecades(first.dropDecades)} decades down` : '';
+      const reason = why('stalled', 'a residual stopped falling');
       return {
         advice: settled
-          ? `stop: ${first.reason}${where}, but ${quantities.map((q) => settledText(q.diagnosis)).join(' and ')}; judge whether that is good enough`
-          : `stop: ${first.reason}${where}; more iterations will not help without changing the set-up (under-relaxation, mesh, time step)`,
+          ? `stop: ${reason}${where}, but ${settledSummary(quantities)}; judge whether that is good enough`
+          : `stop: ${reason}${where}; more iterations will not help without changing the set-up (under-relaxation, mesh, time step)`,
         reasons,
       };
     }
@@ -72,8 +91,7 @@ export function adviseRun(verdict: State, counted: readonly CountedSeries[], fai
         const subject = residuals.length === 1 ? residuals[0].diagnosis.name : 'all residuals';
         parts.push(allByDrop ? `${subject} ${formatDecades(Math.floor(least * 10) / 10)} orders down` : `${subject} at ${residuals.length === 1 ? 'its target' : 'their targets'}`);
       }
-      if (quantities.length > 0 && quantities.length <= 2) parts.push(...quantities.map((q) => settledText(q.diagnosis)));
-      else if (quantities.length > 2) parts.push(`${quantities.length} quantities settled to ${formatPercent(quantities[0].rule.qoiTol)}`);
+      if (quantities.length > 0) parts.push(settledSummary(quantities));
       return { advice: `stop: ${parts.join(' and ')}`, reasons };
     }
     case 'converging': {

@@ -3,6 +3,8 @@
  * still converging, oscillating (steady runs), failed or undecided.
  *
  * Method, on the samples after start-up (at most the newest 16 384, so the cost stays bounded):
+ * 0. Transient runs: a quantity cycling over physical time is judged by the stability of its cycle
+ *    (judgePeriodicTransient below, cycle-stability.ts); the rest applies when it does not cycle.
  * 1. MSER-5 truncation (mser-truncation.ts) removes the initial transient; a minimum in the second
  *    half means no steady part yet.
  * 2. Batch means with a t interval (batch-means-interval.ts) give the mean and its half-width.
@@ -16,6 +18,10 @@
  *    (detect-oscillation.ts): in a steady run a persistent cycle larger than the tolerance is
  *    `oscillating`; in a transient run a periodic state is the goal, judged by the mean over whole
  *    periods with an interval from whole-period batches.
+ * 6. A quantity the rules above leave `converging` (no cycle) still counts as settled when its remaining
+ *    change is negligible: monotone over the trailing window, moved by at most qoiTol of its value
+ *    there (common practice, methods.md), and a geometric tail (Ferziger & Perić 2002 §5.7; see
+ *    remaining-change.ts) within qoiTol; reported with the extrapolated limit ± that tail.
  * Settled means: relative half-width ≤ qoiTol, no drift, no significant iteration error left.
  * Tolerances are relative to |mean| (or to 1 when the mean is exactly 0).
  * Cost: O(n) for n ≤ 16 384 samples, plus the cycle test O(2048²/3) only when the quantity varies.
@@ -26,6 +32,8 @@ import { mserTruncation } from './mser-truncation.js';
 import { batchMeansInterval, intervalOfMeans, studentTQuantile } from './batch-means-interval.js';
 import { geometricIterationError } from './geometric-iteration-error.js';
 import { detectOscillation } from './detect-oscillation.js';
+import { remainingChange } from './remaining-change.js';
+import { cycleStability, refinePeriod } from './cycle-stability.js';
 import { formatCount, formatEstimate, formatMeanInterval, formatPercent, formatResidual, formatValue } from './format-figures.js';
 
 export const QUANTITY_SPAN = 16384;
@@ -51,7 +59,49 @@ export interface QuantitySamples {
   readonly times?: Float64Array;
 }
 
-export function judgeQuantity(samples: QuantitySamples, qoiTol: number): SeriesDiagnosis {
+/** Default trailing window (iterations) for the remaining-change rule: DEFAULT_CRITERIA.window. */
+export const DEFAULT_QUANTITY_WINDOW = 200;
+
+export function judgeQuantity(samples: QuantitySamples, qoiTol: number, window = DEFAULT_QUANTITY_WINDOW): SeriesDiagnosis {
+  const judged = judgeByStatistics(samples, qoiTol);
+  if (judged.state !== 'converging' || judged.period !== undefined) return judged;
+  return settledByRemainingChange(samples, qoiTol, window) ?? judged;
+}
+
+/**
+ * Step 6: a quantity still approaching its limit monotonically, whose remaining change is negligible.
+ * MSER-5 finds no steady part in a geometric approach to a limit (every batch is a little closer than
+ * the one before), so the statistical rules alone would call it converging for ever. It counts as
+ * settled when, over the trailing window (criteria.window iterations), it moved monotonically, by no
+ * more than qoiTol of its value (the common-practice rule: change over the last few hundred
+ * iterations below about 0.1 % of the value, methods.md), and the geometric tail still to come
+ * (Ferziger & Perić 2002, §5.7: per iteration where that applies, else over blocks of the window,
+ * remaining-change.ts) is within qoiTol too. Mean = the extrapolated limit; half-width = the
+ * estimated remaining iteration error (at least half the print resolution seen).
+ */
+function settledByRemainingChange(samples: QuantitySamples, qoiTol: number, window: number): SeriesDiagnosis | null {
+  const { info, values, iterations } = samples;
+  const n = values.length;
+  const from = Math.max(0, n - QUANTITY_SPAN);
+  const change = remainingChange(values, iterations, from, n, window);
+  if (change === null) return null;
+  const perIteration = geometricIterationError(values, Math.max(from, n - GEOMETRIC_POINTS), n);
+  const error = perIteration?.error ?? change.error;
+  const limit = values[n - 1] + error;
+  const scale = limit !== 0 ? Math.abs(limit) : 1;
+  if (Math.abs(error) > qoiTol * scale || Math.abs(change.windowChange) > qoiTol * scale) return null;
+  const halfWidth = Math.max(Math.abs(error), change.resolution / 2);
+  return {
+    name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last,
+    state: 'converged',
+    reason: change.windowChange === 0
+      ? `${info.name} settled at ${formatMeanInterval(limit, halfWidth)}, unchanged for ${formatCount(change.windowSpan)} iterations`
+      : `${info.name} settled at ${formatMeanInterval(limit, halfWidth)} (moved ${formatPercent(Math.abs(change.windowChange) / scale)} in ${formatCount(change.windowSpan)} iterations; geometric tail ${formatPercent(Math.abs(error) / scale)}, Ferziger & Perić)`,
+    mean: limit, halfWidth, iterationError: error, limit, settledFrom: iterations[n - 1] - change.windowSpan,
+  };
+}
+
+function judgeByStatistics(samples: QuantitySamples, qoiTol: number): SeriesDiagnosis {
   const { info } = samples;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last };
   const with_ = (state: State, reason: string, extra: Partial<SeriesDiagnosis> = {}): SeriesDiagnosis => ({ ...base, state, reason, ...extra });
@@ -69,6 +119,11 @@ export function judgeQuantity(samples: QuantitySamples, qoiTol: number): SeriesD
   const iterations = samples.iterations;
   const lastIteration = iterations[n - 1];
   const unitWord = samples.transient ? 'time steps' : 'iterations';
+
+  if (samples.transient) {
+    const periodic = judgePeriodicTransient(samples, from, qoiTol);
+    if (periodic !== null) return periodic;
+  }
 
   const mser = mserTruncation(values, from, n);
   if (mser === null || !mser.settled) {
@@ -123,6 +178,71 @@ export function judgeQuantity(samples: QuantitySamples, qoiTol: number): SeriesD
     return with_('converging', `${info.name} mean ${formatMeanInterval(interval.mean, interval.halfWidth)}: ±${formatPercent(relative)}, not yet within ${formatPercent(qoiTol)}; about ${formatEstimate(more)} more ${unitWord}`, { ...fields, ...geometric });
   }
   return with_('converged', `${info.name} settled at ${formatMeanInterval(interval.mean, interval.halfWidth)} for ${formatCount(lastIteration - settledFrom)} ${unitWord}`, { ...fields, ...geometric });
+}
+
+/**
+ * Step 0 for transient runs: a quantity that cycles over physical time (a periodic state is the goal,
+ * methods.md) is judged by the stability of its cycle (cycle-stability.ts) over all judged samples,
+ * start-up transient included (detect-oscillation.ts removes the trend, retried without the first
+ * quarter and half; the period is refined on the newest cycles, cycle-stability.ts; the last whole
+ * periods are what is compared). Tolerances are relative to the larger of the cycle's amplitude and |mean|: a
+ * relative tolerance on a mean near zero is meaningless, and a small ripple on a large value need not
+ * repeat to ripple precision. Settled (`converged`) when the mean and the amplitude of the last period
+ * agree with the period before within qoiTol of that scale, and either the pair before agrees too or
+ * the period-to-period changes fall geometrically with a tail within qoiTol; or, for a noisy cycle,
+ * when the 95 % interval of the mean over whole-period batches is that narrow and the amplitude does
+ * not change by more than that from period to period. Returns null when no
+ * cycle larger than the tolerance shows (the steady-state rules then apply).
+ */
+function judgePeriodicTransient(samples: QuantitySamples, from: number, qoiTol: number): SeriesDiagnosis | null {
+  const { info, values, iterations } = samples;
+  const n = values.length;
+  // The start-up transient can hide the cycle from the autocorrelation: also try without the first
+  // quarter and the first half of the samples.
+  const first = Math.max(from, n - CYCLE_POINTS);
+  let cycle = null;
+  let cycleFrom = first;
+  for (const skip of [0, 0.25, 0.5]) {
+    cycleFrom = first + Math.floor(skip * (n - first));
+    cycle = detectOscillation(values, cycleFrom, n);
+    if (cycle !== null) break;
+  }
+  if (cycle === null) return null;
+  const period = refinePeriod(values, first, n, cycle.period);
+  const stability = cycleStability(values, first, n, period);
+  const whole = wholePeriodInterval(values, cycleFrom, n, Math.round(period));
+  const mean = stability?.mean ?? whole?.mean ?? cycle.meanOverPeriods;
+  const amplitude = stability?.amplitude ?? cycle.amplitude;
+  const scale = Math.max(amplitude, Math.abs(mean)) || 1;
+  if (!(amplitude > qoiTol * scale)) return null;
+  const spacing = (iterations[n - 1] - iterations[cycleFrom]) / Math.max(1, n - 1 - cycleFrom);
+  const steps = formatCount(period);
+  const base = {
+    name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last,
+    period: period * spacing, amplitudeRelative: amplitude / (mean !== 0 ? Math.abs(mean) : 1), mean,
+  };
+  const allowed = qoiTol * scale;
+  const repeats = stability !== null && stability.lastChange <= allowed
+    && ((stability.meanChange <= allowed && stability.amplitudeChange <= allowed) || stability.toCome <= allowed);
+  if (stability !== null && repeats) {
+    return {
+      ...base, state: 'converged', halfWidth: stability.lastChange,
+      reason: `${info.name} periodic every ${steps} time steps around ${formatValue(mean)} ± ${formatValue(amplitude)}; the last two periods agree within ${formatPercent(stability.lastChange / scale)}`,
+    };
+  }
+  if (whole !== null && whole.halfWidth <= allowed && (stability === null || stability.amplitudeChange <= allowed)) {
+    return {
+      ...base, state: 'converged', mean: whole.mean, halfWidth: whole.halfWidth,
+      reason: `${info.name} periodic every ${steps} time steps, mean ${formatMeanInterval(whole.mean, whole.halfWidth)} over whole periods`,
+    };
+  }
+  const change = stability !== null ? stability.lastChange : Number.NaN;
+  return {
+    ...base, state: 'converging', halfWidth: whole?.halfWidth,
+    reason: stability !== null
+      ? `${info.name} periodic every ${steps} time steps around ${formatValue(mean)} ± ${formatValue(amplitude)}; the cycle still changes by ${formatPercent(change / scale)} from period to period, not yet within ${formatPercent(qoiTol)}`
+      : `${info.name} periodic every ${steps} time steps; fewer than 3 whole periods to compare yet`,
+  };
 }
 
 function geometricFields(values: Float64Array, n: number, _qoiTol: number): { iterationError?: number; limit?: number } {

@@ -10,7 +10,8 @@
  * Rules, in order (thresholds are common practice, logged in DEVELOPERS.md):
  * - failed: a non-finite value since the last restart;
  * - undecided: inside the start-up iterations, or fewer than 5 points to judge;
- * - converged: at or below the level;
+ * - converged: at or below the level, the peak lying before the last five values (a residual whose
+ *   newest values set the peak is blowing up, however far the median of five lies below it);
  * - diverging: now ≥ 3 decades above the window's lowest value (a jump), or the window's trend rises by
  *   ≥ 1 decade (sustained growth);
  * - oscillating: once a whole window has been seen and the window's fall is less than twice the
@@ -81,7 +82,10 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   if (end - judgedFrom < 5) {
     return with_('undecided', `start-up: not judged before it ${formatCount(judgedFromIteration)}`, common);
   }
-  if (nowLog <= levelLog) {
+  // The drop is measured from a peak that lies before the recent points: when the peak is among the
+  // last five values (the residual is blowing up right now), falling "below the peak" means nothing.
+  const peakIsRecent = !(memo.peakIteration < column.iterations[Math.max(segmentStart, end - 5)]);
+  if (nowLog <= levelLog && !peakIsRecent) {
     const why = rule.target !== undefined && nowLog <= safeLog10(rule.target) && dropDecades < rule.drop
       ? `below the target ${formatResidual(rule.target)}`
       : `${formatDecades(dropDecades)} decades below its peak`;

@@ -23,7 +23,7 @@ import { resolveSeriesCriteria, type SeriesRule } from './resolve-series-criteri
 import { judgeResidual } from './judge-residual.js';
 import { judgeQuantity, QUANTITY_SPAN, type QuantitySamples } from './judge-quantity.js';
 import { judgeTransientResidual, RECENT_STEPS, type StepRange } from './judge-transient-residual.js';
-import { adviseRun, criteriaResults, isAlarm, rawVerdict, type CountedSeries } from './advise-run.js';
+import { adviseRun, criteriaResults, isAlarm, rawVerdict, type AlarmReasons, type CountedSeries } from './advise-run.js';
 import { formatCount, formatMeanInterval, formatResidual, formatValue } from './format-figures.js';
 import { validateCriteria } from './validate-criteria.js';
 
@@ -43,6 +43,8 @@ interface JudgeState {
   readonly series: ReadonlyMap<string, Held>;
   readonly run: Held;
   readonly timeline: readonly StateChange[];
+  /** Latest reason seen per alarm state (raw), for advice on a held verdict. */
+  readonly alarmReasons: AlarmReasons;
 }
 
 const TIMELINE_LIMIT = 500;
@@ -56,7 +58,7 @@ export interface RunJudgeOptions {
 export function createRunJudge(criteria: Criteria, options: RunJudgeOptions = {}): RunJudge {
   const problems = validateCriteria(criteria);
   if (problems.length > 0) throw new RangeError(`invalid criteria: ${problems.join('; ')}`);
-  let state: JudgeState = { memos: new Map(), series: new Map(), run: INITIAL, timeline: [] };
+  let state: JudgeState = { memos: new Map(), series: new Map(), run: INITIAL, timeline: [], alarmReasons: {} };
   const confirm = options.confirmed === true ? 1 : criteria.confirm;
   return {
     update(snapshot) {
@@ -113,6 +115,11 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
   }
 
   const raw = snapshot.records === 0 && snapshot.failure === undefined ? 'undecided' : rawVerdict(countedRaw, snapshot.failure);
+  let alarmReasons = state.alarmReasons;
+  for (const alarm of ['failed', 'diverging', 'oscillating', 'stalled'] as const) {
+    const reason = countedRaw.find((c) => c.diagnosis.state === alarm)?.diagnosis.reason;
+    if (reason !== undefined && alarmReasons[alarm] !== reason) alarmReasons = { ...alarmReasons, [alarm]: reason };
+  }
   const run = hold(state.run, raw, confirm);
   const verdict = run.shown;
   if (verdict !== state.run.shown) {
@@ -121,7 +128,7 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
   // Advice follows the verdict shown: when a run alarm is still being confirmed, explain from the raw
   // states what is suspected, but advise according to the shown verdict.
   const basis = verdict === raw ? countedRaw : counted;
-  const { advice, reasons } = adviseRun(verdict, basis, snapshot.failure, criteria.startup);
+  const { advice, reasons } = adviseRun(verdict, basis, snapshot.failure, criteria.startup, alarmReasons);
   if (verdict !== raw) reasons.push(`looks ${raw}; confirming, ${run.held} of ${confirm} checks`);
   for (const note of pendingNotes) if (!reasons.includes(note)) reasons.push(note);
   const final = FINAL_STATES.has(verdict) && verdict === raw && (verdict === 'failed' || run.held >= confirm);
@@ -139,7 +146,7 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
     criteria: criteriaResults(counted),
     final,
   };
-  return { diagnosis, next: { memos, series: heldSeries, run, timeline } };
+  return { diagnosis, next: { memos, series: heldSeries, run, timeline, alarmReasons } };
 }
 
 function changeText(d: SeriesDiagnosis): string {
@@ -160,7 +167,7 @@ function judgeSeries(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, 
     }
     return judgeResidual(column, memo, rule, { window: criteria.window, startup: criteria.startup });
   }
-  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol);
+  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol, criteria.window);
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   return { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last, state: 'undecided', reason: `${info.name} is shown, not judged` };
 }

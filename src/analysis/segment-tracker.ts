@@ -7,6 +7,10 @@
  * happens once (or again if more points arrived than the store keeps at full resolution).
  * A new segment begins at a point whose iteration does not exceed the previous one (the counter went
  * back) or that reaches an announced restart iteration the series had not yet passed.
+ * Peak across a restart: a segment resumed from a checkpoint (its first iteration lies after the old
+ * segment's peak) keeps the old peak as its reference, since residuals carried
+ * on from the checkpoint's level are still measured against the run's start (common practice: the
+ * drop criterion refers to the run, not to the restart); a fresh start begins a new peak.
  * Returns new memo objects; never mutates its inputs.
  */
 import type { SeriesColumn } from '../series/series-column.js';
@@ -24,7 +28,7 @@ export interface SegmentMemo {
   readonly segments: number;
   /** Points added in the segment. */
   readonly points: number;
-  /** Highest log10 |value| in the segment (−Infinity when none finite). */
+  /** Highest log10 |value| in the segment, or before the checkpoint it resumed from (−Infinity when none finite). */
   readonly peakLog: number;
   readonly peakIteration: number;
   /** Iteration of the first non-finite value in the segment (NaN when none). */
@@ -57,11 +61,18 @@ export function advanceSegment(memo: SegmentMemo | undefined, column: SeriesColu
       m.restartsUsed++;
     }
     if (begins) {
+      // Resumed from a checkpoint: the counter carries on from past the old peak, so the state before
+      // the checkpoint is the same run and its peak stays the reference for the drop. A fresh start
+      // (counter back to or below the old peak's iteration) or a peak after the checkpoint (e.g. an
+      // attempt that blew up) starts the peak afresh.
+      const resumed = m.points > 0 && m.peakIteration < iteration;
       m.start = iteration;
       m.segments++;
       m.points = 0;
-      m.peakLog = Number.NEGATIVE_INFINITY;
-      m.peakIteration = Number.NaN;
+      if (!resumed) {
+        m.peakLog = Number.NEGATIVE_INFINITY;
+        m.peakIteration = Number.NaN;
+      }
       m.firstNonFinite = Number.NaN;
       m.nonFiniteValue = Number.NaN;
     }

@@ -278,3 +278,71 @@ describe('transient runs', () => {
     expect(ALARMS).not.toContain(d.verdict);
   });
 });
+
+describe('negligible remaining change, periodic transients, restarts (lead review of the sample logs)', () => {
+  const geometric = (n: number, rho: number, start = 1) => Array.from({ length: n }, (_, k) => start * rho ** k);
+  it('a quantity approaching its limit geometrically, printed with 7 digits, settles once the tail is negligible (Ferziger & Perić 2002 §5.7; methods.md common practice 0.1 %)', () => {
+    // limit 2.4883 reached as 0.99^k: after 1500 iterations the change left is 2.4e-7, far below 1e-3 relative
+    const values = Array.from({ length: 1500 }, (_, k) => Number((2.4883 + 0.3 * 0.99 ** k).toPrecision(7)));
+    const d = once([quantity('nu_hot', values)]);
+    expect(d.series[0].state).toBe('converged');
+    expect(Math.abs(d.series[0].mean! - 2.4883)).toBeLessThan(1e-5);
+    expect(d.series[0].halfWidth!).toBeGreaterThan(0);
+    expect(d.series[0].reason).toMatch(/^nu_hot settled at 2\.48830/);
+    expect(d.advice).toMatch(/^stop: nu_hot settled at 2\.48830\d* ± 0\.0+\d+$/);
+  });
+
+  it('a linear drift of 0.05 % per 200 iterations is not settled by the change rule (no decay, unbounded tail)', () => {
+    const values = Array.from({ length: 1500 }, (_, k) => 1 + 2.5e-6 * k);
+    expect(once([quantity('q', values)]).series[0].state).toBe('converging');
+  });
+
+  it('transient: a cycle around a mean near zero is settled by its period-to-period stability, not a relative half-width', () => {
+    const records = [];
+    let iteration = 0;
+    for (let step = 1; step <= 250; step++) {
+      for (let inner = 1; inner <= 8; inner++) {
+        iteration++;
+        const t = step * 0.005;
+        // start-up decaying over 0.1 time units, then a cycle of period 0.25 (50 steps) around 0.003
+        const mid = 0.003 + 0.08 * Math.sin((2 * Math.PI * t) / 0.25) * (1 - Math.exp(-t / 0.1));
+        records.push({ iteration, timeStep: step, inner, time: t, values: new Map([['res_T', 0.3 ** inner], ['t_mid', mid]]) });
+      }
+    }
+    const d = diagnoseRun(storeOf(records, { res_T: 'residual', t_mid: 'quantity' }).snapshot(), DEFAULT_CRITERIA);
+    const tMid = d.series[1];
+    expect(tMid.state).toBe('converged');
+    expect(tMid.period! / (50 * 8)).toBeCloseTo(1, 1); // 50 steps of 8 inner iterations
+    expect(Math.abs(tMid.mean! - 0.003)).toBeLessThan(1e-3);
+    expect(d.verdict).toBe('converged');
+  });
+
+  it('transient: a cycle whose amplitude still grows by 5 % per period is converging', () => {
+    const records = [];
+    for (let step = 1; step <= 250; step++) {
+      const amplitude = 0.08 * 1.05 ** (step / 50);
+      records.push({ iteration: step, timeStep: step, inner: 1, time: step, values: new Map([['q', amplitude * Math.sin((2 * Math.PI * step) / 50)]]) });
+    }
+    const d = diagnoseRun(storeOf(records, { q: 'quantity' }).snapshot(), DEFAULT_CRITERIA);
+    expect(d.series[0].state).toBe('converging');
+    expect(d.series[0].reason).toMatch(/periodic every 50 time steps/);
+  });
+
+  it('a run resumed from a checkpoint keeps the run\'s peak as the reference for the drop', () => {
+    const full = geometric(900, 0.985);
+    // stopped at 600, resumed from the checkpoint at 400: the counter goes back, values carry on
+    const records = [
+      ...recordsOf([residual('res', full.slice(0, 600))]),
+      ...recordsOf([residual('res', full.slice(400))]).map((r, i) => ({ ...r, iteration: 401 + i, restart: i === 0 })),
+    ];
+    const d = diagnoseRun(storeOf(records, { res: 'residual' }).snapshot(), DEFAULT_CRITERIA);
+    expect(d.series[0].dropDecades!).toBeGreaterThan(5); // from the value at iteration 1, not at 401
+    expect(d.verdict).toBe('converged');
+  });
+
+  it('a residual blowing up in its newest values is not "below its peak"', () => {
+    const values = [...geometric(80, 0.98), 10, 1e3, 1e5, 1e8, 1e13];
+    const d = once([residual('res', values)]);
+    expect(d.series[0].state).toBe('diverging');
+  });
+});
