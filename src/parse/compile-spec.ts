@@ -10,7 +10,10 @@ import { groupNames, UserPattern } from './user-pattern.js';
 import { globMatcher } from './glob-matcher.js';
 import { lexNumber, lexNumberIn } from './lex-number.js';
 import { scanKeyValues } from './scan-key-values.js';
-import { splitFields } from './split-fields.js';
+import { splitFieldBounds, splitFields } from './split-fields.js';
+
+/** A table cell with no number in it. */
+const EMPTY = null;
 import { RecordAssembler } from './record-assembler.js';
 
 export type RecordParserFactory = (onRecord: RecordSink) => RecordParser;
@@ -123,7 +126,9 @@ class SpecParser implements RecordParser {
   private columns: string[] | null = null;
   private columnCounters: (CounterName | undefined)[] = [];
   private readonly fields: string[] = [];
-  private readonly lexed: number[] = [];
+  private readonly lexed: (number | typeof EMPTY)[] = [];
+  private starts = new Int32Array(64);
+  private ends = new Int32Array(64);
   private pairKind: SeriesKind | undefined;
   private pairsSeen = 0;
   /** Names seen at each pair position on the previous line (kept by scanKeyValues), and what the
@@ -267,25 +272,26 @@ class SpecParser implements RecordParser {
       const count = splitFields(line, plan.separator, this.fields);
       this.columns = this.fields.slice(0, count);
       this.columnCounters = this.columns.map((name) => plan.counterOf.get(name));
+      if (this.starts.length < count) { this.starts = new Int32Array(count); this.ends = new Int32Array(count); }
       return true;
     }
     const columns = this.columns;
     if (columns === null) return false;
-    const count = splitFields(line, plan.separator, this.fields);
+    const starts = this.starts;
+    const ends = this.ends;
+    const count = splitFieldBounds(line, plan.separator, starts, ends);
     if (count !== columns.length) return false;
-    const fields = this.fields;
     const lexed = this.lexed;
+    const counters = this.columnCounters;
     let numeric = 0;
     let filled = 0;
     for (let i = 0; i < count; i++) {
-      const text = fields[i];
-      if (text.length === 0) { lexed[i] = Number.NaN; continue; }
+      if (starts[i] === ends[i]) { lexed[i] = EMPTY; continue; }
       filled++;
-      const value = lexNumber(text);
+      const value = lexNumberIn(line, starts[i], ends[i]);
       if (value === undefined) {
-        if (this.columnCounters[i] === 'iteration') return false;
-        lexed[i] = Number.NaN;
-        fields[i] = '';
+        if (counters[i] === 'iteration') return false;
+        lexed[i] = EMPTY;
       } else {
         numeric++;
         lexed[i] = value;
@@ -295,12 +301,13 @@ class SpecParser implements RecordParser {
     const assembler = this.assembler;
     const values = assembler.current();
     for (let i = 0; i < count; i++) {
-      if (fields[i].length === 0) continue;
-      const counter = this.columnCounters[i];
-      if (counter !== undefined) { assembler.setCounter(counter, lexed[i]); continue; }
+      const value = lexed[i];
+      if (value === EMPTY) continue;
+      const counter = counters[i];
+      if (counter !== undefined) { assembler.setCounter(counter, value as number); continue; }
       const name = columns[i];
       if (!this.info.has(name)) this.register(name, undefined);
-      values.set(name, lexed[i]);
+      values.set(name, value as number);
     }
     assembler.close();
     return true;
