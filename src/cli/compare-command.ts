@@ -90,11 +90,18 @@ export function registerCompareCommand(program: Command): void {
     .option('--json', 'print one JSON object')
     .option('--allow-unsettled', 'use the last value of a quantity that has not settled (and say so) instead of refusing');
   addCriteriaOptions(addSourceOptions(command));
+  // The source option --quantity names the study's quantity here: reword its help, drop its default.
   const quantityOption = command.options.find((option) => option.long === '--quantity');
-  if (quantityOption !== undefined) quantityOption.description = 'the quantity the mesh study is about (required; also treated as a monitored quantity)';
+  if (quantityOption !== undefined) {
+    quantityOption.flags = '--quantity <name>';
+    quantityOption.description = 'the quantity the mesh study is about (required; also treated as a monitored quantity)';
+    quantityOption.defaultValue = undefined;
+    quantityOption.argParser((value: string, previous: string[] | undefined) => [...(previous ?? []), value]);
+  }
   command.action(async (logs: string[], flags: CompareFlags) => {
     const { parseCellCounts, parseDimensions } = await import('../report/mesh-study.js');
-    const quantity = studyQuantityOf(flags.quantity);
+    const quantity = studyQuantityOf(flags.quantity ?? []);
+    flags.quantity = [quantity];
     if (flags.cells === undefined) throw new UsageError('compare needs --cells N1,N2,N3: the cell counts of the grids, fine to coarse', 'for example --cells 64000,8000,1000');
     const cells = parseCellCounts(flags.cells, logs.length);
     const dimensions = parseDimensions(flags.dims);
