@@ -16,8 +16,8 @@ import { buildHeaderModel, buildViewModel, chartedQuantities, tableOrder } from 
 import type { RunContext, TerminalSize } from './build-view-model.js';
 import { buildOverviewModel, overviewOrder } from './build-overview-model.js';
 import type { RunSummary } from './build-overview-model.js';
-import { paintDashboard } from './paint-panels.js';
-import type { PanelName } from './paint-panels.js';
+import { paintDashboard, paintHeader } from './paint-panels.js';
+import type { PaintedPanel, PanelName } from './paint-panels.js';
 import { toBlessedTags } from './styled-text.js';
 import { applyKey, initialViewState } from './view-state.js';
 import type { KeyContext, ViewState } from './view-state.js';
@@ -40,7 +40,7 @@ export interface DashboardOptions {
   readonly env?: NodeJS.ProcessEnv;
   /** Wall clock (ms) for ages in the header. Default Date.now. */
   readonly now?: () => number;
-  /** Shortest time between two frames (ms). Default 100 (at most 10 frames a second). */
+  /** Shortest time between two frames (ms). Default 150 (at most about 7 frames a second). */
   readonly frameMs?: number;
   /** Iterations the `recent` span shows. Default 1000. */
   readonly recentIterations?: number;
@@ -157,6 +157,10 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
   (screen as unknown as { tput: { brokenACS: boolean } }).tput.brokenACS = true;
   const colour = useColour(env, (screen as unknown as { tput?: { colors?: number } }).tput?.colors ?? 8);
   const boxes = new Map<PanelName, Widgets.BoxElement>();
+  const placed = new Map<PanelName, string>();
+  const contents = new Map<PanelName, string>();
+  const tagged = new WeakMap<PaintedPanel, string>();
+  let paintedBefore: { model: DashboardModel; panels: Partial<Record<PanelName, PaintedPanel>> } | undefined;
   let last: { model: DashboardModel; key: string } | undefined;
   let closed = false;
   let resolveDone: () => void = () => undefined;
@@ -251,16 +255,34 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
   function render(): void {
     if (closed) return;
     try {
-      const panels = paintDashboard(buildModel(), colour);
+      const model = buildModel();
+      const panels = paintedBefore !== undefined && onlyHeaderDiffers(model, paintedBefore.model) && paintedBefore.panels.header !== undefined
+        ? { ...paintedBefore.panels, header: { rect: model.layout.header, lines: [paintHeader((model as RunViewModel).header, model.layout.header.width)] } }
+        : paintDashboard(model, colour);
+      paintedBefore = { model, panels };
       for (const [name, box] of boxes) if (panels[name] === undefined && box.visible) box.hide();
       for (const [name, panel] of Object.entries(panels) as [PanelName, NonNullable<(typeof panels)[PanelName]>][]) {
         const box = boxFor(name, panel.title !== undefined);
-        box.left = panel.rect.left;
-        box.top = panel.rect.top;
-        box.width = panel.rect.width;
-        box.height = panel.rect.height;
-        if (panel.title !== undefined) box.setLabel(panel.title);
-        box.setContent(panel.lines.map((line) => toBlessedTags(line, colour)).join('\n'));
+        const { left, top, width, height } = panel.rect;
+        // Touch a box only where something changed: blessed re-parses every content it is given.
+        const placement = `${left},${top},${width},${height},${panel.title ?? ''}`;
+        if (placed.get(name) !== placement) {
+          box.left = left;
+          box.top = top;
+          box.width = width;
+          box.height = height;
+          if (panel.title !== undefined) box.setLabel(panel.title);
+          placed.set(name, placement);
+        }
+        let content = tagged.get(panel);
+        if (content === undefined) {
+          content = panel.lines.map((line) => toBlessedTags(line, colour)).join('\n');
+          tagged.set(panel, content);
+        }
+        if (contents.get(name) !== content) {
+          box.setContent(content);
+          contents.set(name, content);
+        }
         if (!box.visible) box.show();
         if (name === 'help') box.setFront();
       }
@@ -270,7 +292,7 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
     }
   }
 
-  const loop = createRenderLoop(render, options.frameMs ?? 100, timers);
+  const loop = createRenderLoop(render, options.frameMs ?? 150, timers);
   // Ages in the header ("grew 4 s ago") move with the clock: one cheap frame a second.
   const clock = setInterval(() => loop.invalidate(), 1000);
   clock.unref?.();
@@ -345,6 +367,13 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
     loop.invalidate();
   };
   return { done, close, frames: () => loop.frames, text, note };
+}
+
+/** True when `next` is `previous` with only a new header (the clock moved, nothing else). */
+function onlyHeaderDiffers(next: DashboardModel, previous: DashboardModel): boolean {
+  if (next.kind !== 'run' || previous.kind !== 'run' || next === previous) return false;
+  const keys = Object.keys(next) as (keyof RunViewModel)[];
+  return keys.every((key) => key === 'header' || next[key] === previous[key]);
 }
 
 function withQuietStderr<T>(action: () => T): T {
