@@ -17,7 +17,7 @@ import { actionEvent, stateChangeEvent, verdictEvent } from './gate-events.js';
 import type { GateEnding } from './gate-ending.js';
 import { isProcessRunning } from './check-gate-inputs.js';
 import { describeAction, planGateActions, type GateRequest } from './plan-gate-actions.js';
-import { performGateActions } from './perform-gate-actions.js';
+import { performGateActions, type ActionOutcome } from './perform-gate-actions.js';
 import { shouldStopFollowing } from './should-stop-following.js';
 
 export interface FollowGateOptions {
@@ -94,25 +94,28 @@ export async function followAndGate(options: FollowGateOptions): Promise<number>
   }
   const diagnosis = trigger ?? last;
   const plan = planGateActions(diagnosis, ending ?? { kind: 'source-ended' }, options.request);
-  const outcomes = plan.act ? await performGateActions(plan.actions, { dryRun: options.dryRun, execStdout: options.events ? 'stderr' : 'inherit' }) : [];
+  const perform = (): Promise<ActionOutcome[]> => (plan.act
+    ? performGateActions(plan.actions, { dryRun: options.dryRun, execStdout: options.events ? 'stderr' : 'inherit' })
+    : Promise.resolve([]));
 
   if (options.events) {
-    for (const outcome of outcomes) out(actionEvent(outcome.action, { dryRun: options.dryRun, ok: outcome.ok, message: options.dryRun ? undefined : outcome.message }));
-    out(verdictEvent(plan, { final: diagnosis.final, advice: diagnosis.advice, log: options.request.log }));
-  } else {
-    options.stdout.write(options.json ? `${JSON.stringify(runJson(diagnosis))}\n` : formatRunText(options.request.log, diagnosis));
-    const say = options.json ? note : (line: string): void => out(line);
-    say(`gate: stopped following because ${plan.endedBy}`);
-    if (!plan.act) say(`gate: no action, ${plan.why}`);
-    for (const outcome of outcomes) {
-      const what = describeAction(outcome.action);
-      if (options.dryRun) say(`gate: dry run, would ${what}`);
-      else if (outcome.ok) say(`gate: did ${what}`);
-      else say(`gate: failed to ${what}: ${outcome.message ?? 'unknown reason'}`);
+    for (const outcome of await perform()) {
+      out(actionEvent(outcome.action, { dryRun: options.dryRun, ok: outcome.ok, message: options.dryRun ? undefined : outcome.message }));
+      if (!options.dryRun && !outcome.ok) note(`failed to ${describeAction(outcome.action)}: ${outcome.message ?? 'unknown reason'}`);
     }
+    out(verdictEvent(plan, { final: diagnosis.final, advice: diagnosis.advice, log: options.request.log }));
+    return plan.exitCode;
   }
-  for (const outcome of outcomes) {
-    if (!options.dryRun && !outcome.ok && options.events) note(`failed to ${describeAction(outcome.action)}: ${outcome.message ?? 'unknown reason'}`);
+  // The verdict first, then what the gate does about it (a command's own output follows).
+  options.stdout.write(options.json ? `${JSON.stringify(runJson(diagnosis))}\n` : formatRunText(options.request.log, diagnosis));
+  const say = options.json ? note : (line: string): void => out(line);
+  say(`gate: stopped following because ${plan.endedBy}`);
+  if (!plan.act) say(`gate: no action, ${plan.why}`);
+  for (const outcome of await perform()) {
+    const what = describeAction(outcome.action);
+    if (options.dryRun) say(`gate: dry run, would ${what}`);
+    else if (outcome.ok) say(`gate: did ${what}`);
+    else say(`gate: failed to ${what}: ${outcome.message ?? 'unknown reason'}`);
   }
   return plan.exitCode;
 }
