@@ -124,9 +124,12 @@ export function paintChart(chart: ChartModel, width: number, height: number, lab
   // Tick rows.
   const tickAt = new Map<number, string>();
   if (drawable) {
-    for (const tick of chart.yTicks) {
+    // Top tick first; a tick whose row is taken, or touches a taken row, is left out.
+    for (const tick of [...chart.yTicks].sort((a, b) => b.at - a.at)) {
       if (tick.at < chart.yMin || tick.at > chart.yMax) continue;
-      tickAt.set(Math.min(plotRows - 1, toDotY(tick.at) >> 2), tick.label);
+      const row = Math.min(plotRows - 1, toDotY(tick.at) >> 2);
+      if (tickAt.has(row) || (tickAt.has(row - 1) && plotRows > 3)) continue;
+      tickAt.set(row, tick.label);
     }
   }
   const emptyRow = Math.floor((plotRows - 1) / 2);

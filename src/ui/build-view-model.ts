@@ -215,7 +215,7 @@ function residualChart(
     ...base,
     yMin,
     yMax,
-    yTicks: decadeTicks(yMin, yMax, Math.max(2, geometry.plotRows)).map((e) => ({ at: e, label: formatDecade(e) })),
+    yTicks: decadeTicks(yMin, yMax, Math.max(2, Math.ceil(geometry.plotRows / 2) + 1)).map((e) => ({ at: e, label: formatDecade(e) })),
     xTicks: xTicks(window, geometry.plotCols),
     lines,
     levels,
@@ -245,7 +245,7 @@ function quantityChart(
     xMax: window.to,
   };
   const emptyChart = (text: string): ChartModel => ({ ...base, yMin: 0, yMax: 1, yTicks: [], xTicks: [], lines: [], levels: [], empty: text });
-  if (column === undefined) return emptyChart(Number.isNaN(window.from) ? 'waiting for data' : 'no monitored quantities in this log');
+  if (column === undefined) return emptyChart(Number.isNaN(window.from) ? 'waiting for data' : 'no quantities in this log');
   if (view.hidden.has(column.info.name)) return emptyChart(`${name} is hidden (h on its row shows it)`);
 
   const points = downsample(column, startIndex(column, window.from), 2 * geometry.plotCols, finiteOrNaN);

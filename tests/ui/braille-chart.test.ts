@@ -54,6 +54,15 @@ describe('paintChart', () => {
     expect(text[7][5]).toBe('└');
   });
 
+  it('never puts two labels on one row, nor on touching rows, keeping the top one', () => {
+    const yTicks = Array.from({ length: 15 }, (_, i) => ({ at: -i, label: `1e${-i}` }));
+    const text = paintChart(chart({ yMin: -14, yMax: 0, yTicks, lines: [{ name: 'a', style: 0, x: [0, 10], y: [0, -14] }] }), 30, 8, 6, true).map(plainText);
+    const labelled = text.slice(1, -1).map((line, row) => (line.slice(0, 5).trim() === '' ? -1 : row)).filter((row) => row >= 0);
+    expect(labelled[0]).toBe(0);
+    expect(text[1].slice(0, 5).trim()).toBe('1e0');
+    for (let i = 1; i < labelled.length; i++) expect(labelled[i] - labelled[i - 1]).toBeGreaterThanOrEqual(2);
+  });
+
   it('shows the empty text in the middle when there is nothing to draw', () => {
     const lines = paintChart(chart({ empty: 'waiting for data' }), 40, 9, 6, true);
     expect(lines.map(plainText).some((line) => line.includes('waiting for data'))).toBe(true);
