@@ -70,7 +70,14 @@ export class RecordAssembler {
       this.clearCounters();
       return;
     }
-    const failureOnly = values.size === 0;
+    if (values.size === 0) {
+      // Only a failure line: a record that carries the failure and no values. It is not an
+      // iteration: it repeats the last iteration number and is not counted in `records`.
+      const failure: LogRecord = { iteration: this.lastIteration ?? 0, values, failure: this.failureText };
+      this.clearCounters();
+      this.sink(failure);
+      return;
+    }
     let step = this.step ?? this.stickyStep;
     const time = this.time ?? this.stickyTime;
     if (step === undefined && time !== undefined && this.stepFromTime) {
@@ -82,7 +89,7 @@ export class RecordAssembler {
       inner = step === this.lastStep && this.lastInner !== undefined ? this.lastInner + 1 : 1;
     }
     let restart = this.restartPending;
-    if (!failureOnly && this.records > 0) {
+    if (this.records > 0) {
       if (this.iteration !== undefined && this.lastIteration !== undefined) {
         if (this.iteration < this.lastIteration) restart = true;
       } else if (step !== undefined && this.lastStep !== undefined) {
@@ -92,7 +99,7 @@ export class RecordAssembler {
       }
     }
     let iteration = this.iteration;
-    if (iteration === undefined) iteration = failureOnly && this.lastIteration !== undefined ? this.lastIteration : this.records + 1;
+    if (iteration === undefined) iteration = this.records + 1;
     const record: { -readonly [K in keyof LogRecord]: LogRecord[K] } = { iteration, values };
     if (step !== undefined) record.timeStep = step;
     if (inner !== undefined) record.inner = inner;
@@ -103,12 +110,10 @@ export class RecordAssembler {
       this.restartPending = false;
     }
     if (this.failureText !== undefined) record.failure = this.failureText;
-    if (!failureOnly) {
-      this.lastIteration = iteration;
-      this.lastStep = step;
-      this.lastInner = inner;
-      this.lastTime = time;
-    }
+    this.lastIteration = iteration;
+    this.lastStep = step;
+    this.lastInner = inner;
+    this.lastTime = time;
     this.clearCounters();
     this.records++;
     this.sink(record);
@@ -123,7 +128,8 @@ export class RecordAssembler {
     this.counterCaptured = false;
   }
 
-  /** A line marking a crash: attach its text to the open record (or a new empty one) and emit. */
+  /** A line marking a crash: attach its text to the open record and emit it; with no record open
+   * (one record per line), emit a record with no values that carries only the failure. */
   fail(line: string): void {
     this.current();
     this.failureText = line.length > FAILURE_TEXT_LENGTH ? `${line.slice(0, FAILURE_TEXT_LENGTH - 1)}…` : line;
