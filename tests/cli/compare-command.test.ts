@@ -33,14 +33,6 @@ describe('settle compare', () => {
     expect(doc.iterationVerdict).toMatch(/^iteration error negligible/);
   });
 
-  it('prints the study as text', async () => {
-    const result = await runCli(study);
-    expect(result.code).toBe(0);
-    expect(result.stdout).toMatch(/Mesh study of nu_hot \(2-D grids; Celik et al\. 2008\)/);
-    expect(result.stdout).toMatch(/refinement ratios +r21 = 1\.5, r32 = 1\.333/);
-    expect(result.stdout).toMatch(/GCI of the fine grid +2\.\d+ %/);
-  });
-
   it('refuses an unsettled run by name and state, and takes its last value with --allow-unsettled', async () => {
     const refused = await runCli(['compare', fine, short, coarse, '--quantity', 'nu_hot', '--cells', '18000,8000,4500', '--dims', '2']);
     expect(refused.code).toBe(3);
@@ -61,7 +53,7 @@ describe('settle compare', () => {
     ['two --quantity', [fine, medium, coarse, '--quantity', 'a', '--quantity', 'b', '--cells', '3,2,1'], /compare studies one quantity/],
     ['--dims 4', [fine, medium, coarse, '--quantity', 'nu_hot', '--cells', '18000,8000,4500', '--dims', '4'], /--dims must be 2 or 3/],
     ['an unknown quantity (lists the known ones)', [fine, medium, coarse, '--quantity', 'drag', '--cells', '18000,8000,4500'], /has no series named 'drag'\n {2}hint: known quantities: nu_hot/],
-  ] as const)('refuses %s (exit 2, message and hint)', async (_label, args, message) => {
+  ] as const)('refuses %s (exit 2, message and hint)', { concurrent: true }, async (_label, args, message) => {
     const result = await runCli(['compare', ...args]);
     expect(result.code).toBe(2);
     expect(result.stderr).toMatch(message);

@@ -10,7 +10,7 @@ const dir = mkdtempSync(join(tmpdir(), 'settle-report-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const logA = join(dir, 'a.log');
 const logB = join(dir, 'b.log');
-writeFileSync(logA, steadyRunLog(2.243, 1, 1500, 800));
+writeFileSync(logA, steadyRunLog(2.243, 1, 1200, 700));
 writeFileSync(logB, 'iter=1 res_p=1.0e+00 nu_hot=1.0\niter=2 res_p=2.0e+00 nu_hot=1.1\niter=3 res_p=NaN nu_hot=NaN\nFATAL solver blew up\n');
 
 describe('settle report', () => {
@@ -21,7 +21,7 @@ describe('settle report', () => {
     expect(result.stdout).toContain(`== ${logA} ==`);
     expect(result.stdout).toContain(`== ${logB} ==`);
     expect(result.stdout).toMatch(/parser: +spec settle-kv/);
-    expect(result.stdout).toMatch(/restarts: +1 \(at iteration 750\)/);
+    expect(result.stdout).toMatch(/restarts: +1 \(at iteration 650\)/);
     expect(result.stdout).toMatch(/nu_hot +converged +2\.243/);
     expect(result.stdout.trimEnd()).toMatch(/licensed professional practice\.$/);
   });
@@ -56,7 +56,7 @@ describe('settle report', () => {
     const doc = JSON.parse(result.stdout);
     expect(doc.criteria.drop).toBe(2);
     const run = doc.runs[0];
-    expect(run).toMatchObject({ log: logA, parser: 'settle-kv', restarts: [750] });
+    expect(run).toMatchObject({ log: logA, parser: 'settle-kv', restarts: [650] });
     const nu = run.series.find((s: { name: string }) => s.name === 'nu_hot');
     expect(nu).toMatchObject({ kind: 'quantity', state: 'converged' });
     expect(Math.abs(nu.mean - 2.243)).toBeLessThan(1e-3); // the value the log was written to settle at
@@ -71,7 +71,7 @@ describe('settle report', () => {
     ['-o onto a folder', ['-o', 'DIR'], 2, /is a folder/],
     ['a log that does not exist', ['NOLOG'], 3, /cannot read .*nope\.log: no such file/],
     ['a bad criteria flag', ['--drop', 'lots'], 2, /--drop needs a positive number of decades/],
-  ] as const)('refuses %s with a one-line message and a hint', async (_label, extra, code, message) => {
+  ] as const)('refuses %s with a one-line message and a hint', { concurrent: true }, async (_label, extra, code, message) => {
     const places: Record<string, string> = { LOG: logA, MISSING: join(dir, 'missing'), DIR: dir, NOLOG: join(dir, 'nope.log') };
     const args = extra.map((a) => a.replace(/^(NOLOG|LOG|MISSING|DIR)/, (m) => places[m]));
     const logs = args.includes(join(dir, 'nope.log')) ? [] : [logA];

@@ -33,6 +33,18 @@ describe('meshStudy', () => {
     expect(Math.abs(study.gci.gciFine * 100 - 2.2)).toBeLessThan(0.05);
   });
 
+  it('prints the study as text: ratios, order, extrapolated value, errors, GCI band and the caution', () => {
+    const text = renderMeshStudyText(meshStudy(celik(), 'nu_hot', 2, false));
+    expect(text).toMatch(/^Mesh study of nu_hot \(2-D grids; Celik et al\. 2008\)/);
+    expect(text).toMatch(/refinement ratios +r21 = 1\.5, r32 = 1\.333/);
+    expect(text).toMatch(/apparent order p +1\.534/);
+    expect(text).toMatch(/extrapolated value +6\.168496/);
+    expect(text).toMatch(/approximate relative error +e21_a = 1\.5 %/);
+    expect(text).toMatch(/extrapolated relative error +e21_ext = 1\.71 %/);
+    expect(text).toMatch(/GCI of the fine grid +2\.17 %, i\.e\. 6\.063 ± 0\.132 \(safety factor 1\.25\)/);
+    expect(text).toMatch(/Caution: .*asymptotic range/);
+  });
+
   it('calls an iteration error two orders below the discretisation error negligible, and one order below not (Eça & Hoekstra, common practice, from memory)', () => {
     // discretisation error = GCI band of the fine grid ≈ 0.1319 (1.25 · 0.091 / (1.5^1.534 − 1))
     const small = meshStudy(celik(1e-4), 'nu_hot', 2, false);

@@ -46,7 +46,7 @@ export function seededNoise(seed: number): () => number {
  * with relative noise 2e-5, so it settles well inside the run. `restartAt` repeats the iteration
  * counter from there (a run continued from a checkpoint).
  */
-export function steadyRunLog(phi: number, seed: number, iterations = 1500, restartAt?: number): string {
+export function steadyRunLog(phi: number, seed: number, iterations = 1200, restartAt?: number): string {
   const noise = seededNoise(seed);
   const lines: string[] = [];
   const write = (it: number): void => {
