@@ -51,6 +51,8 @@ export function advanceSegment(memo: SegmentMemo | undefined, column: SeriesColu
   }
   if (!fresh && newPoints === 0) return memo!;
   const m = fresh ? { ...EMPTY } : { ...memo! };
+  // |value| at the peak (a lower bound of it, so no candidate is missed): 10^peakLog rounded down.
+  let peakAbs = Number.isFinite(m.peakLog) ? 10 ** m.peakLog * (1 - 1e-12) : -1;
   for (let index = column.length - newPoints; index < column.length; index++) {
     const iteration = column.iterations[index];
     const value = column.values[index];
@@ -72,6 +74,7 @@ export function advanceSegment(memo: SegmentMemo | undefined, column: SeriesColu
       if (!resumed) {
         m.peakLog = Number.NEGATIVE_INFINITY;
         m.peakIteration = Number.NaN;
+        peakAbs = -1;
       }
       m.firstNonFinite = Number.NaN;
       m.nonFiniteValue = Number.NaN;
@@ -82,11 +85,13 @@ export function advanceSegment(memo: SegmentMemo | undefined, column: SeriesColu
         m.firstNonFinite = iteration;
         m.nonFiniteValue = value;
       }
-    } else {
+    } else if (Math.abs(value) > peakAbs) {
+      // A log only when the peak may move (log10 is monotone): most points cost one comparison.
       const log = safeLog10(value);
       if (log > m.peakLog) {
         m.peakLog = log;
         m.peakIteration = iteration;
+        peakAbs = Math.abs(value);
       }
     }
     m.lastIteration = iteration;

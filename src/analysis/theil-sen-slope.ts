@@ -44,11 +44,37 @@ export function theilSenSlope(
   return medianInPlace(slopes.subarray(0, count));
 }
 
-/** Median of a typed array, sorting it in place. NaN when empty. */
+/** Median of a typed array, reordering it in place (Hoare's selection, "Find", Comm. ACM 4(7), 1961):
+ * O(n) on average instead of a full sort. NaN when empty. */
 export function medianInPlace(values: Float64Array): number {
   const n = values.length;
   if (n === 0) return Number.NaN;
-  values.sort();
   const half = n >> 1;
-  return n % 2 === 1 ? values[half] : (values[half - 1] + values[half]) / 2;
+  const upper = select(values, half);
+  if (n % 2 === 1) return upper;
+  // The lower middle is the largest value left of `half` after selection.
+  let lower = values[0];
+  for (let i = 1; i < half; i++) if (values[i] > lower) lower = values[i];
+  return (lower + upper) / 2;
+}
+
+/** The k-th smallest value; afterwards values[0..k) ≤ values[k] ≤ values(k..n). Deterministic pivot (middle). */
+function select(values: Float64Array, k: number): number {
+  let lo = 0, hi = values.length - 1;
+  while (lo < hi) {
+    const pivot = values[(lo + hi) >> 1];
+    let i = lo, j = hi;
+    while (i <= j) {
+      while (values[i] < pivot) i++;
+      while (values[j] > pivot) j--;
+      if (i <= j) {
+        const t = values[i]; values[i] = values[j]; values[j] = t;
+        i++; j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return values[k];
 }

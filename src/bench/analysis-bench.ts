@@ -20,6 +20,7 @@ const judge = createRunJudge(DEFAULT_CRITERIA);
 const values = new Map<string, number>();
 let evaluations = 0;
 let judgeMs = 0;
+let judgeCpuUs = 0;
 const start = performance.now();
 for (let i = 1; i <= N; i++) {
   for (let s = 0; s < 4; s++) values.set(names[s], Math.max(1e-12, Math.exp(-i / (20000 * (s + 1)))) * (1 + 0.1 * uniform()));
@@ -27,12 +28,14 @@ for (let i = 1; i <= N; i++) {
   store.add({ iteration: i, values }, (name) => ({ name, kind: name.startsWith('res_') ? 'residual' : 'quantity' }));
   if (isEvaluationPoint(store.records)) {
     const t = performance.now();
+    const c = process.cpuUsage();
     judge.update(store.snapshot());
     judgeMs += performance.now() - t;
+    judgeCpuUs += process.cpuUsage(c).user;
     evaluations++;
   }
 }
 const t = performance.now();
 const final = judge.update(store.snapshot());
 judgeMs += performance.now() - t;
-console.log(`${N} iterations × 8 series: ${evaluations + 1} evaluations, analysis ${judgeMs.toFixed(0)} ms, total with store ${(performance.now() - start).toFixed(0)} ms; verdict ${final.verdict}`);
+console.log(`${N} iterations × 8 series: ${evaluations + 1} evaluations, analysis ${judgeMs.toFixed(0)} ms (CPU ${(judgeCpuUs / 1000).toFixed(0)} ms, includes GC threads), total with store ${(performance.now() - start).toFixed(0)} ms; verdict ${final.verdict}`);
