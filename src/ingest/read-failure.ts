@@ -12,7 +12,7 @@ interface Explanation {
 }
 
 const EXPLANATIONS: Readonly<Record<string, Explanation>> = {
-  ENOENT: { what: 'no such file', hint: 'check the path; to wait for a log that a solver has not created yet, use 'settle watch' or 'settle check --follow'' },
+  ENOENT: { what: 'no such file', hint: 'check the path; to wait for a log that a solver has not created yet, use `settle watch` or `settle check --follow`' },
   ENOTDIR: { what: 'a part of the path is not a folder', hint: 'check the path' },
   EISDIR: { what: 'it is a folder, not a file', hint: 'name the log file inside the folder' },
   EACCES: { what: 'permission denied', hint: 'settle only needs read access: check the permissions of the file and its folders' },
