@@ -6,7 +6,7 @@
 import type { LogRecord, SeriesInfo, SeriesKind } from './log-record.js';
 import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
-import { groupNames, UserPattern } from './user-pattern.js';
+import { capLine, groupNames, UserPattern } from './user-pattern.js';
 import { globMatcher } from './glob-matcher.js';
 import { lexNumber, lexNumberIn } from './lex-number.js';
 import { scanKeyValues } from './scan-key-values.js';
@@ -216,9 +216,12 @@ class SpecParser implements RecordParser {
         this.pairKind = rule.kind;
         this.addMatchedPair(rule, match);
         if (rule.repeat) {
+          // Go on from where the first match ended, on the same (length-capped) text.
           const regex = pattern.regex;
+          const text = capLine(line);
+          if (match[0].length === 0) regex.lastIndex++;
           let next: RegExpExecArray | null;
-          while (regex.lastIndex < line.length && (next = regex.exec(line.length > 65_536 ? line.slice(0, 65_536) : line)) !== null) {
+          while (regex.lastIndex < text.length && (next = regex.exec(text)) !== null) {
             if (next[0].length === 0) regex.lastIndex++;
             this.addMatchedPair(rule, next);
           }

@@ -39,7 +39,7 @@ export function scanKeyValues(line: string, assign: string, visit: PairVisitor, 
     if (at < 0) break;
     let nameEnd = at;
     while (nameEnd > pos && isBlank(line.charCodeAt(nameEnd - 1))) nameEnd--;
-    let name = names[taken];
+    let name: string | undefined = names[taken];
     let nameStart = name === undefined ? -1 : nameEnd - name.length;
     if (nameStart < pos || !line.startsWith(name, nameStart) || (nameStart > pos && !isDelimiter(line.charCodeAt(nameStart - 1)))) {
       nameStart = nameEnd;
