@@ -6,10 +6,11 @@
  *    the screen is polled every 2 ms, which adds up to ~2 ms plus one capture).
  * 2. CPU while the log is quiet (10 s), from /proc/<pid>/stat of the watch process.
  * 3. CPU while 1 000 lines a second are appended (10 s, 50 lines every 50 ms).
+ * With 2 and 3, the bytes written to the terminal per second (tmux pipe-pane): the SSH bandwidth.
  * Targets (issue 4): < 250 ms, < 1 % and < 15 % of a core. Needs tmux and Linux /proc.
  */
 import { execFileSync } from 'node:child_process';
-import { appendFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { appendFileSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -74,12 +75,21 @@ async function main(): Promise<void> {
     }
     latencies.sort((a, b) => a - b);
 
+    // Bytes the dashboard writes to the terminal (what an SSH link carries), via tmux pipe-pane.
+    const bytesFile = path.join(dir, 'pane-bytes');
+    writeFileSync(bytesFile, '');
+    tmux('pipe-pane', '-t', 'bench', `cat >> '${bytesFile}'`);
+    const bytesNow = (): number => statSync(bytesFile).size;
+
     await sleep(2000);
     let before = cpuSeconds(pid);
+    let bytesBefore = bytesNow();
     await sleep(10_000);
     const quiet = (cpuSeconds(pid) - before) / 10;
+    const quietBytes = (bytesNow() - bytesBefore) / 10;
 
     before = cpuSeconds(pid);
+    bytesBefore = bytesNow();
     const started = performance.now();
     for (let k = 0; k < 200; k++) {
       append(50);
@@ -88,14 +98,15 @@ async function main(): Promise<void> {
     }
     const elapsed = (performance.now() - started) / 1000;
     const busy = (cpuSeconds(pid) - before) / elapsed;
+    const busyBytes = (bytesNow() - bytesBefore) / elapsed;
     await waitFor(`iteration ${grouped(next - 1)}`);
 
     const percent = (x: number): string => `${(100 * x).toFixed(1)} %`;
     process.stdout.write([
       'dashboard (settle watch under tmux, 120×40, settle-kv log with 3 residuals and 2 quantities):',
       `  latency, appended line → on screen: median ${latencies[10].toFixed(0)} ms, worst ${latencies[19].toFixed(0)} ms (target < 250 ms)`,
-      `  CPU while the log is quiet: ${percent(quiet)} of a core (target < 1 %)`,
-      `  CPU at ${Math.round(10_000 / elapsed)} lines/s: ${percent(busy)} of a core (target < 15 %), history ${next - 1} iterations`,
+      `  CPU while the log is quiet: ${percent(quiet)} of a core (target < 1 %); terminal output ${(quietBytes / 1024).toFixed(1)} KiB/s`,
+      `  CPU at ${Math.round(10_000 / elapsed)} lines/s: ${percent(busy)} of a core (target < 15 %), history ${next - 1} iterations; terminal output ${(busyBytes / 1024).toFixed(1)} KiB/s`,
       '',
     ].join('\n'));
     tmux('send-keys', '-t', 'bench', 'q');

@@ -10,7 +10,7 @@ import type { Criteria } from '../analysis/criteria.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
-import { SettleError } from '../errors.js';
+import { SettleError, UsageError } from '../errors.js';
 
 export interface WatchOptions {
   readonly paths: string[];
@@ -63,7 +63,12 @@ export async function runWatch(options: WatchOptions): Promise<number> {
   let keys: NodeJS.ReadableStream = stdin;
   let ownTty: tty.ReadStream | undefined;
   if (paths.includes('-') || !isTerminal(stdin)) {
-    ownTty = new tty.ReadStream(openSync('/dev/tty', 'r'));
+    try {
+      ownTty = new tty.ReadStream(openSync('/dev/tty', 'r'));
+    } catch {
+      throw new UsageError('settle watch has no terminal to read keys from (standard input is not one, and /dev/tty cannot be opened)',
+        'run it from a terminal, or use settle check --follow in scripts');
+    }
     keys = ownTty;
   }
   const { openDashboard } = await import('../ui/dashboard-screen.js');

@@ -40,7 +40,8 @@ export interface DashboardOptions {
   readonly env?: NodeJS.ProcessEnv;
   /** Wall clock (ms) for ages in the header. Default Date.now. */
   readonly now?: () => number;
-  /** Shortest time between two frames (ms). Default 150 (at most about 7 frames a second). */
+  /** Shortest time between two frames (ms). Default 200 (at most 5 frames a second while data streams;
+   * the first change after a quiet spell is drawn at once). */
   readonly frameMs?: number;
   /** Iterations the `recent` span shows. Default 1000. */
   readonly recentIterations?: number;
@@ -292,7 +293,7 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
     }
   }
 
-  const loop = createRenderLoop(render, options.frameMs ?? 150, timers);
+  const loop = createRenderLoop(render, options.frameMs ?? 200, timers);
   // Ages in the header ("grew 4 s ago") move with the clock: one cheap frame a second.
   const clock = setInterval(() => loop.invalidate(), 1000);
   clock.unref?.();
