@@ -61,7 +61,9 @@ export async function followAndGate(options: FollowGateOptions): Promise<number>
       end({ kind: 'final' });
     }
   });
+  let opened = false;
   monitor.on('source', (event) => {
+    if (event.type === 'opened') opened = true;
     if (event.type === 'waiting') note(`waiting for ${event.path} to appear`);
     else if (event.type === 'warning') note(`warning: ${event.message}`);
   });
@@ -69,11 +71,11 @@ export async function followAndGate(options: FollowGateOptions): Promise<number>
   if (options.idleMs !== undefined) {
     const idleMs = options.idleMs;
     let lastActivity = Date.now();
-    monitor.on('records', () => { lastActivity = Date.now(); });
+    monitor.on('records', () => { lastActivity = Date.now(); opened = true; });
     timers.push(setInterval(() => {
       const grewAt = monitor.pace().lastGrowthAt;
       const since = Math.max(lastActivity, Number.isFinite(grewAt) ? grewAt : 0);
-      if (Date.now() - since >= idleMs) end({ kind: 'idle', idleMs });
+      if (Date.now() - since >= idleMs) end(opened ? { kind: 'idle', idleMs } : { kind: 'idle', idleMs, neverAppeared: true });
     }, Math.min(1000, Math.max(20, Math.floor(idleMs / 5)))));
   }
   if (options.pid !== undefined) {

@@ -34,7 +34,7 @@ export function seriesFigures(series: SeriesDiagnosis): string {
 }
 
 export function formatRunText(log: string, diagnosis: RunDiagnosis): string {
-  const at = Number.isFinite(diagnosis.iterations) ? `at iteration ${diagnosis.iterations}` : 'with no iterations read';
+  const at = diagnosis.records > 0 && Number.isFinite(diagnosis.iterations) ? `at iteration ${diagnosis.iterations}` : 'with no iterations read';
   const lines = [`${log}: ${diagnosis.verdict} (exit ${diagnosis.exitCode}) ${at}`, `  advice: ${diagnosis.advice}`];
   diagnosis.reasons.forEach((reason, index) => lines.push(`  ${index === 0 ? 'why:   ' : '       '} ${reason}`));
   if (diagnosis.series.length > 0) {

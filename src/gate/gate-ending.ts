@@ -7,7 +7,7 @@ export type GateEnding =
   /** The verdict is final (it held for the confirmation window) and the minimum iterations passed. */
   | { readonly kind: 'final' }
   /** The log did not grow for the --idle duration. */
-  | { readonly kind: 'idle'; readonly idleMs: number }
+  | { readonly kind: 'idle'; readonly idleMs: number; readonly neverAppeared?: boolean }
   /** The process given with --pid ended. */
   | { readonly kind: 'process-ended'; readonly pid: number }
   /** The source itself ended (standard input closed). */
@@ -17,7 +17,9 @@ export type GateEnding =
 export function describeEnding(ending: GateEnding): string {
   switch (ending.kind) {
     case 'final': return 'the verdict held for the confirmation window';
-    case 'idle': return `the log did not grow for ${formatDuration(ending.idleMs)}`;
+    case 'idle': return ending.neverAppeared
+      ? `the log did not appear within ${formatDuration(ending.idleMs)}`
+      : `the log did not grow for ${formatDuration(ending.idleMs)}`;
     case 'process-ended': return `process ${ending.pid} ended`;
     case 'source-ended': return 'the log ended';
   }

@@ -34,6 +34,7 @@ describe('check text', () => {
 
   it('says so when no iterations were read', () => {
     expect(formatRunText('x.log', makeDiagnosis({ verdict: 'undecided', iterations: Number.NaN, series: [] }))).toMatch(/^x\.log: undecided \(exit 11\) with no iterations read\n/);
+    expect(formatRunText('x.log', makeDiagnosis({ verdict: 'undecided', iterations: 0, records: 0, series: [] }))).toMatch(/^x\.log: undecided \(exit 11\) with no iterations read\n/);
   });
 
   it('ends several runs with the worst verdict', () => {
