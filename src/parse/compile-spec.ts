@@ -3,7 +3,7 @@
  * line then costs a few literal pre-filter checks, at most the regular expressions whose literal is
  * present, number lexing, and the record itself.
  */
-import type { LogRecord, SeriesInfo, SeriesKind } from './log-record.js';
+import type { SeriesInfo, SeriesKind } from './log-record.js';
 import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { capLine, groupNames, UserPattern } from './user-pattern.js';
@@ -371,4 +371,3 @@ class SpecParser implements RecordParser {
   }
 }
 
-export type { LogRecord };
