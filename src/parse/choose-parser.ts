@@ -4,9 +4,10 @@
  * Says which and why in one line (`ParserChoice.explanation`).
  *
  * Fit: a spec fits when at least `detect.minMatches` of its first `detect.firstLines` sample lines
- * match one of its detection patterns, and a trial parse of the sample yields a record. Among the
- * fitting specs of one group (user, then built-in) the one matching most lines wins; ties go to the
- * earlier spec. Cost: one pass over the sample per spec.
+ * match one of its detection patterns. Among the fitting specs of one group (user, then built-in),
+ * one whose trial parse of the sample yields a record beats one whose does not (a live log may so
+ * far hold only a header); then the one matching most lines wins; ties go to the earlier spec.
+ * Cost: one pass over the sample per spec.
  */
 import { InputError, UsageError, shorten } from '../errors.js';
 import type { LoadedSpec } from './loaded-spec.js';
@@ -38,12 +39,13 @@ export function chooseParser(sampleLines: readonly string[], options: ChoosePars
     return choiceOf(spec.spec, `spec ${spec.id} (${origin(spec)}): chosen with --parser`, overrides);
   }
   const ordered = [...specs.filter((s) => !s.builtIn), ...specs.filter((s) => s.builtIn)];
-  let best: { spec: LoadedSpec; matches: number; looked: number } | undefined;
+  let best: { spec: LoadedSpec; matches: number; looked: number; records: boolean } | undefined;
   for (const loaded of ordered) {
     if (best !== undefined && best.spec.builtIn !== loaded.builtIn) break;
     const fit = specFit(loaded.spec, sampleLines);
     if (fit === undefined) continue;
-    if (best === undefined || fit.matches > best.matches) best = { spec: loaded, ...fit };
+    const better = best === undefined || (fit.records && !best.records) || (fit.records === best.records && fit.matches > best.matches);
+    if (better) best = { spec: loaded, ...fit };
   }
   if (best !== undefined) {
     return choiceOf(best.spec.spec,
@@ -68,8 +70,9 @@ function choiceOf(spec: ParserSpec, explanation: string, overrides: KindOverride
   return { id: spec.id, explanation, create: factory };
 }
 
-/** How well a spec's detection patterns fit the sample; undefined when it does not fit. */
-export function specFit(spec: ParserSpec, sampleLines: readonly string[]): { matches: number; looked: number } | undefined {
+/** How well a spec's detection patterns fit the sample (undefined when it does not fit), and
+ * whether a trial parse of the sample yields a record with values. */
+export function specFit(spec: ParserSpec, sampleLines: readonly string[]): { matches: number; looked: number; records: boolean } | undefined {
   const looked = Math.min(sampleLines.length, spec.detect.firstLines ?? DEFAULT_FIRST_LINES);
   const patterns = spec.detect.patterns.map((p) => new UserPattern(p));
   let matches = 0;
@@ -82,5 +85,5 @@ export function specFit(spec: ParserSpec, sampleLines: readonly string[]): { mat
   const parser = compileSpec(spec, { residual: [], quantity: [] })((record) => { if (record.values.size > 0) records++; });
   for (let i = 0; i < looked; i++) parser.pushLine(sampleLines[i]);
   parser.finish();
-  return records > 0 ? { matches, looked } : undefined;
+  return { matches, looked, records: records > 0 };
 }

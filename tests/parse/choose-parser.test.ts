@@ -119,3 +119,27 @@ describe('chooseParser: inference for logs no spec fits', () => {
     try { attempt(); } catch (error) { expect((error as InputError).hint).toMatch(/parser spec.*settle parsers list/); }
   });
 });
+
+describe('chooseParser: a live log that so far holds only a header', () => {
+  it.each([['settle-table', '      iter        res_p        res_u'], ['settle-csv', 'iter,res_p,res_u']])('still picks %s', (id, header) => {
+    const choice = chooseParser([header], { specs: builtIns, overrides: NO_OVERRIDES, source: 'live.log' });
+    expect(choice.id).toBe(id);
+    const { records } = runChoice(choice, [header, id === 'settle-csv' ? '1,1.0,0.5' : '  1  1.0  0.5']);
+    expect(records.map(plain)).toEqual([{ iteration: 1, values: { res_p: 1, res_u: 0.5 } }]);
+  });
+
+  it('prefers a spec whose trial parse yields records over one that only matches its detection patterns', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'settle-choose-'));
+    try {
+      const file = join(dir, 'greedy.json');
+      // Detection matches every line, but the rules read nothing from these logs.
+      writeFileSync(file, JSON.stringify({ id: 'greedy', description: 'x', detect: { patterns: ['.'] }, lines: { rules: [{ match: '^never (?<x>\\d+)' }] } }));
+      const mine = loadParserSpecs({ files: [file], configDir: null }).filter((s) => !s.builtIn);
+      const other = { ...mine[0], id: 'reader', spec: { ...mine[0].spec, id: 'reader', detect: { patterns: ['^iter='] }, lines: { rules: [{ keyValues: {} }] } } };
+      const choice = chooseParser(['iter=1 a=1', 'iter=2 a=2', 'noise'], { specs: [...mine, other], overrides: NO_OVERRIDES, source: 'x' });
+      expect(choice.id).toBe('reader');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
