@@ -56,6 +56,7 @@ export function paintChart(chart: ChartModel, width: number, height: number, lab
     if (level.kind === 'band') continue;
     legend.push({ text: level.kind === 'target' ? `·· ${level.label}` : `── ${level.label}`, style: LEVEL_STYLES[level.kind] }, { text: '  ' });
   }
+  if ((chart.restarts?.length ?? 0) > 0) legend.push({ text: '┊ restart', style: LEVEL_STYLES.band }, { text: '  ' });
   if (chart.hiddenCount > 0) legend.push({ text: `(${chart.hiddenCount} hidden)`, style: AXIS_STYLE });
   lines.push(fitLine(legend, width));
   if (height === 1) return lines;
@@ -90,6 +91,12 @@ export function paintChart(chart: ChartModel, width: number, height: number, lab
       const from = level.fromX === undefined ? 0 : Math.max(0, toDotX(level.fromX));
       const every = level.kind === 'mean' ? 1 : level.kind === 'target' ? 2 : 3;
       for (let dx = from; dx < dotCols; dx += every) setDot(dx, dy, LEVEL_OWNER, level.kind);
+    }
+    // Restarts: dotted vertical lines.
+    for (const restart of chart.restarts ?? []) {
+      if (!(restart >= chart.xMin && restart <= chart.xMax)) continue;
+      const dx = toDotX(restart);
+      for (let dy = 0; dy < dotRows; dy += 2) setDot(dx, dy, LEVEL_OWNER, 'band');
     }
     // Data lines: straight segments between consecutive finite points; a non-finite point is a gap.
     for (const line of chart.lines) {

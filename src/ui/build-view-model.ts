@@ -72,7 +72,9 @@ export function buildViewModel(
   const window = chartWindow(snapshot, view);
 
   const residualColumns = ordered.filter((column) => column.info.kind === 'residual');
-  const residuals = residualChart(residualColumns, bySeries, view, window, styleOf, layout.residuals.width - 2, layout.residuals.height - 2);
+  const restarts = snapshot.restarts.filter((iteration) => iteration >= window.from && iteration <= window.to);
+  const residualsChart = residualChart(residualColumns, bySeries, view, window, styleOf, layout.residuals.width - 2, layout.residuals.height - 2);
+  const residuals = restarts.length > 0 && residualsChart.empty === undefined ? { ...residualsChart, restarts } : residualsChart;
   const quantities = chartedQuantities(snapshot);
   const quantity = quantityChart(quantities, bySeries, view, window, styleOf, layout.quantity.width - 2, layout.quantity.height - 2);
 
@@ -122,32 +124,44 @@ function chartWindow(snapshot: RunSnapshot, view: ViewState): ChartWindow {
   return { from: Math.min(from, last), to: Math.max(last, from) };
 }
 
-/** Index of the first point at or after iteration `from` (points ascend, except across restarts
- * where the counter went back: the search then keeps everything after the last restart point). */
-function startIndex(column: SeriesColumn, from: number): number {
-  let i = column.length;
-  while (i > 0 && column.iterations[i - 1] >= from) {
-    if (i < column.length && column.iterations[i - 1] > column.iterations[i]) break;
-    i--;
-  }
-  return i;
-}
-
 interface Downsampled {
   readonly x: number[];
   readonly y: number[];
 }
 
-/** Downsample a column's points from `start` on, with y mapped by `toPlot` (non-finite → NaN). */
-function downsample(column: SeriesColumn, start: number, threshold: number, toPlot: (value: number) => number): Downsampled {
-  const n = column.length - start;
-  const y = new Float64Array(Math.max(0, n));
-  for (let i = 0; i < n; i++) {
-    const v = toPlot(column.values[start + i]);
-    y[i] = Number.isFinite(v) ? v : Number.NaN;
+// Scratch space for the history being downsampled, reused between calls (copied out before return).
+let scratchX = new Float64Array(1024);
+let scratchY = new Float64Array(1024);
+
+/** The history of a column from iteration `from` on, as it stands now, downsampled to `threshold`
+ * points, with y mapped by `toPlot` (non-finite → NaN).
+ *
+ * After a restart from a checkpoint the counter goes back and the solver computes those iterations
+ * again: the points it replaced are left out, so each iteration shows its latest value and x keeps
+ * ascending. Method: walk back from the newest point, keeping a point only when its iteration is
+ * below every point kept so far. O(points in the window). */
+function downsample(column: SeriesColumn, from: number, threshold: number, toPlot: (value: number) => number): Downsampled {
+  const n = column.length;
+  if (scratchX.length < n) {
+    scratchX = new Float64Array(n);
+    scratchY = new Float64Array(n);
   }
-  const x = column.iterations.subarray(start, column.length);
-  const picks = downsampleLttbSorted(x, y, 0, n, Math.max(3, threshold));
+  let count = 0;
+  let lowest = Number.POSITIVE_INFINITY;
+  for (let i = n - 1; i >= 0; i--) {
+    const iteration = column.iterations[i];
+    if (!(iteration < lowest)) continue;
+    if (iteration < from) break;
+    lowest = iteration;
+    // Filled from the end of the scratch arrays, so the kept points come out in ascending order.
+    scratchX[n - 1 - count] = iteration;
+    const v = toPlot(column.values[i]);
+    scratchY[n - 1 - count] = Number.isFinite(v) ? v : Number.NaN;
+    count++;
+  }
+  const x = scratchX.subarray(n - count, n);
+  const y = scratchY.subarray(n - count, n);
+  const picks = downsampleLttbSorted(x, y, 0, count, Math.max(3, threshold));
   return { x: picks.map((i) => x[i]), y: picks.map((i) => y[i]) };
 }
 
@@ -202,7 +216,7 @@ function residualChart(
 
   const threshold = 2 * geometry.plotCols;
   const lines: ChartLine[] = shown.map((column) => {
-    const points = downsample(column, startIndex(column, window.from), threshold, log10OrNaN);
+    const points = downsample(column, window.from, threshold, log10OrNaN);
     return { name: column.info.name, style: styleOf.get(column.info.name) ?? 0, x: points.x, y: points.y };
   });
   const targets = [...new Set(shown.map((column) => bySeries.get(column.info.name)?.target).filter((t): t is number => t !== undefined && t > 0 && Number.isFinite(t)))].slice(0, 3);
@@ -248,7 +262,7 @@ function quantityChart(
   if (column === undefined) return emptyChart(Number.isNaN(window.from) ? 'waiting for data' : 'no quantities in this log');
   if (view.hidden.has(column.info.name)) return emptyChart(`${name} is hidden (h on its row shows it)`);
 
-  const points = downsample(column, startIndex(column, window.from), 2 * geometry.plotCols, finiteOrNaN);
+  const points = downsample(column, window.from, 2 * geometry.plotCols, finiteOrNaN);
   const lines: ChartLine[] = [{ name: column.info.name, style: styleOf.get(column.info.name) ?? 0, x: points.x, y: points.y }];
   const diagnosis = bySeries.get(column.info.name);
   const levels: ChartLevel[] = [];

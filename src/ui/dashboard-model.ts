@@ -41,6 +41,8 @@ export interface ChartModel {
   readonly xTicks: readonly ChartTick[];
   readonly lines: readonly ChartLine[];
   readonly levels: readonly ChartLevel[];
+  /** Iterations where the run restarted: drawn as dotted vertical lines. */
+  readonly restarts?: readonly number[];
   /** Legend entries in drawing order (hidden series are left out and counted in `hiddenCount`). */
   readonly legend: readonly { readonly name: string; readonly style: number }[];
   readonly hiddenCount: number;

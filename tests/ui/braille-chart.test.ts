@@ -45,6 +45,13 @@ describe('paintChart', () => {
     expect(plainText(lines[0])).toContain('·· target 1e-3');
   });
 
+  it('marks a restart with a dotted vertical line and says so in the legend', () => {
+    const lines = paintChart(chart({ restarts: [0] }), 16, 6, 6, true);
+    // Dot column 0, every second dot row: dots 1 and 3 (0x01 | 0x04) in each cell of column 0.
+    expect(plotCells(lines, 6).map((row) => row[0])).toEqual(Array(4).fill(String.fromCharCode(0x2800 | 0x01 | 0x04)));
+    expect(plainText(lines[0])).toContain('┊ restart');
+  });
+
   it('labels ticks on the rows where they fall and puts x labels under the plot', () => {
     const lines = paintChart(chart({ yMin: -3, yMax: 0, yTicks: [{ at: 0, label: '1e0' }, { at: -3, label: '1e-3' }], xTicks: [{ at: 5, label: '500' }], lines: [{ name: 'a', style: 0, x: [0, 10], y: [0, -3] }] }), 30, 8, 6, true);
     const text = lines.map(plainText);

@@ -163,6 +163,19 @@ describe('buildViewModel: residual chart', () => {
     }
   });
 
+  it('after a restart that set the counter back, shows each iteration once, with its latest value', () => {
+    const store = new SeriesStore();
+    const info = (name: string) => ({ name, kind: 'residual' as const });
+    for (let i = 1; i <= 300; i++) store.add({ iteration: i, values: new Map([['res_p', 1]]) }, info);
+    for (let i = 201; i <= 400; i++) store.add({ iteration: i, values: new Map([['res_p', 0.01]]), restart: i === 201 }, info);
+    // A wide terminal keeps every one of the 400 points (threshold 2 × plot columns > 400).
+    const line = buildViewModel(runDiagnosis(), store.snapshot(), view(), pace(), { cols: 400, rows: 40 }, 0, context).residuals.lines[0];
+    expect(line.x).toEqual(Array.from({ length: 400 }, (_, i) => i + 1));
+    expect(line.y.slice(0, 200).every((y) => y === 0)).toBe(true);
+    expect(line.y.slice(200).every((y) => Math.abs(y + 2) < 1e-12)).toBe(true);
+    expect(buildViewModel(runDiagnosis(), store.snapshot(), view(), pace(), size, 0, context).residuals.restarts).toEqual([201]);
+  });
+
   it('maps zero, negative and non-finite residuals to NaN (gaps), never to ±Infinity', () => {
     const store = new SeriesStore();
     const values = [1, 0.1, 0, -1, Number.POSITIVE_INFINITY, Number.NaN, 0.01];
