@@ -151,6 +151,9 @@ export function registerCheckCommand(program: Command): void {
     .option('--min-iterations <n>', 'with --follow: never act before this many iterations (default 100)')
     .option('--dry-run', 'with --follow: say what would be done, do nothing');
   addCriteriaOptions(addSourceOptions(command));
+  command.addHelpText('after', `
+Exit codes: ${Object.entries(EXIT_CODES).map(([verdict, code]) => `${code} ${verdict}`).join(', ')};
+  2 usage error, 3 unreadable input. Several logs: the worst verdict decides.`);
   command.action(async (logs: string[], flags: CheckFlags) => {
     const gate = readGateFlags(flags, logs, osConstants.signals);
     const criteria = criteriaFromOptions(flags);
