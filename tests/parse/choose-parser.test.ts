@@ -143,3 +143,26 @@ describe('chooseParser: a live log that so far holds only a header', () => {
     }
   });
 });
+
+describe('chooseParser: more inferred shapes', () => {
+  it('JSON objects without our keys; the counter from a key named like a step', () => {
+    const { choice, records } = choose('{"Step": 5, "L2": 0.1, "name": "run"}\n{"Step": 6, "L2": 0.01, "name": "run"}\n');
+    expect(choice.explanation).toBe("inferred: JSON objects on 2 lines; iteration from 'Step'; 0 residuals, 1 quantity");
+    expect(records.map(plain)).toEqual([{ iteration: 5, values: { L2: 0.1 } }, { iteration: 6, values: { L2: 0.01 } }]);
+  });
+
+  it('a bar-separated table (| a | b |)', () => {
+    const { choice, records } = choose('| it | resid | T |\n| 1 | 1e-1 | 300 |\n| 2 | 1e-2 | 301 |\n');
+    expect(choice.explanation).toMatch(/^inferred: bar-separated table with 3 numeric columns/);
+    expect(records.map(plain)).toEqual([{ iteration: 1, values: { resid: 0.1, T: 300 } }, { iteration: 2, values: { resid: 0.01, T: 301 } }]);
+  });
+
+  it('a transient table: step and inner columns become counters; time repeats within a step', () => {
+    const { records } = choose('step inner time res_p\n1 1 0.1 1.0\n1 2 0.1 0.01\n2 1 0.2 1.0\n');
+    expect(records.map(plain)).toEqual([
+      { iteration: 1, timeStep: 1, inner: 1, time: 0.1, values: { res_p: 1 } },
+      { iteration: 2, timeStep: 1, inner: 2, time: 0.1, values: { res_p: 0.01 } },
+      { iteration: 3, timeStep: 2, inner: 1, time: 0.2, values: { res_p: 1 } },
+    ]);
+  });
+});
