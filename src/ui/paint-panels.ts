@@ -132,8 +132,9 @@ export function paintTable(rows: readonly SeriesRow[], width: number, height: nu
       cells.push({ text: ' ' }, { text: pad(cell.text, column), style: cell.style });
     }
     if (why) cells.push({ text: ' ' }, { text: fit(row.reason, whyWidth, true), style: { fg: 'gray' } });
-    const line = fitLine(cells, width);
-    lines.push(row.cursor ? line.map((segment) => ({ text: segment.text, style: { ...segment.style, inverse: true } })) : line);
+    // The cursor shows as the name in reverse video: enough to find it, quiet enough to read past.
+    if (row.cursor) cells[1] = { text: cells[1].text, style: { ...cells[1].style, inverse: true } };
+    lines.push(fitLine(cells, width));
   }
   if (rows.length === 0) lines.push(fitLine([{ text: '  no series yet', style: { fg: 'gray' } }], width));
   while (lines.length < height) lines.push(fitLine([], width));
