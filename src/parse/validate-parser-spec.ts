@@ -41,8 +41,11 @@ function join(path: string, field: string): string {
 
 function schemaProblems(errors: readonly ErrorObject[]): string[] {
   const problems: string[] = [];
+  // Where a value has the wrong type, other complaints about the same value are noise.
+  const wrongType = new Set(errors.filter((e) => e.keyword === 'type' && !e.schemaPath.includes('/oneOf/')).map((e) => e.instancePath));
   for (const error of errors) {
     const path = dotPath(error.instancePath);
+    if (wrongType.has(error.instancePath) && error.keyword !== 'type') continue;
     // Alternatives inside oneOf: report the oneOf once, in plain words.
     if (error.schemaPath.includes('/oneOf/')) continue;
     let problem: string;
@@ -92,7 +95,8 @@ function semanticProblems(spec: ParserSpec): string[] {
 
 function ruleProblems(rule: LineRule, path: string, checkPattern: (path: string, pattern: string) => boolean, problems: string[]): void {
   if (!('match' in rule)) return;
-  if (!checkPattern(`${path}.match`, rule.match)) return;
+  checkPattern(`${path}.match`, rule.match);
+  if (!compiles(rule.match)) return;
   const names = groupNames(rule.match);
   const counters = names.filter((n) => (COUNTER_NAMES as readonly string[]).includes(n));
   const known = names.length === 0 ? 'it has no named groups' : `its groups are ${names.join(', ')}`;
@@ -115,5 +119,14 @@ function ruleProblems(rule: LineRule, path: string, checkPattern: (path: string,
   const series = names.filter((n) => !counters.includes(n) || (rule.values !== undefined && n in rule.values));
   if (series.length === 0 && counters.length === 0 && rule.startsRecord !== true) {
     problems.push(`${path}.match: the rule yields nothing: name a group (?<name>...) for a series or a counter, or set startsRecord, or move the pattern to ignore`);
+  }
+}
+
+function compiles(pattern: string): boolean {
+  try {
+    new RegExp(pattern);
+    return true;
+  } catch {
+    return false;
   }
 }

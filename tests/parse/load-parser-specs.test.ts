@@ -163,4 +163,19 @@ describe('loadParserSpecs', () => {
       expect.stringMatching(/^lines\.rules\[2\]\.match: the rule yields nothing/),
     ]);
   });
+
+  it('a value of the wrong type is reported once, without the noise of the checks below it', () => {
+    expect(problemsOf(specFile('array.json', []))).toEqual([`${join(dir, 'array.json')}: (top level): must be object`]);
+  });
+
+  it('a rule whose pattern is refused is still checked for its group names', () => {
+    const path = specFile('lookahead.json', {
+      id: 'x', description: 'd', detect: { patterns: ['^x'] },
+      lines: { rules: [{ match: '^(?<v>\\d+)(?=s)', values: { w: 'z' } }] },
+    });
+    expect(problemsOf(path).map((p) => p.slice(path.length + 2))).toEqual([
+      'lines.rules[0].match: lookaround (?= at 10: not allowed (it can backtrack without bound); match the text itself instead',
+      "lines.rules[0].values.w: the pattern has no group named 'w' (its groups are v)",
+    ]);
+  });
 });
