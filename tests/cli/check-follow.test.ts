@@ -31,11 +31,13 @@ describe('settle check --follow', () => {
     const stop = file('growing.STOP');
     const envOut = file('growing.env');
     const sleeper = startSleeper();
-    // Factor 0.95 per iteration: 3 decades below the peak after about 135 iterations.
+    // Factor 0.95 per iteration: 3 decades below the peak after about 135 iterations. The writer
+    // keeps going for 12 s (6000 iterations), far longer than settle needs even on a loaded machine.
+    const LINES = 6000;
     let written = 0;
     const writer = setInterval(() => {
-      if (written >= 2000) return;
-      appendFileSync(log, kvLines(written + 1, written + 20, (i) => 0.95 ** i));
+      if (written >= LINES) return;
+      appendFileSync(log, kvLines(written + 1, written + 20, (i) => Math.max(0.95 ** i, 1e-20)));
       written += 20;
     }, 40);
     try {
@@ -56,7 +58,7 @@ describe('settle check --follow', () => {
       expect([verdict, code, seenLog]).toEqual(['converged', '0', log]);
       expect(reason).toMatch(/res_p/);
       expect(await sleeper.ended).toBe('SIGUSR1');
-      expect(written).toBeLessThan(2000); // it stopped while the log was still growing
+      expect(written).toBeLessThan(LINES); // it stopped while the log was still growing
     } finally {
       clearInterval(writer);
       sleeper.kill();
