@@ -39,7 +39,7 @@ const grouped = (n: number): string => String(n).replace(/\B(?=(\d{3})+(?!\d))/g
 
 async function main(): Promise<void> {
   const socket = `settle-bench-${process.pid}`;
-  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8' });
+  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
   const dir = mkdtempSync(path.join(tmpdir(), 'settle-dashboard-bench-'));
   const log = path.join(dir, 'run.log');
   let next = 1;

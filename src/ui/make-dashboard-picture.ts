@@ -25,7 +25,7 @@ async function main(): Promise<void> {
   const out = path.resolve(process.argv[3] ?? path.join(root, 'sample-logs/pictures/dashboard.svg'));
   const cli = path.join(root, 'dist/src/cli/main.js');
   const socket = `settle-picture-${process.pid}`;
-  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8' });
+  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
   const dir = mkdtempSync(path.join(tmpdir(), 'settle-picture-'));
   const log = path.join(dir, path.basename(source));
   try {

@@ -63,7 +63,7 @@ describe.skipIf(!hasTmux)('settle watch in a real terminal (tmux)', () => {
   let socket: string;
   let dir: string;
   let log: string;
-  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8' });
+  const tmux = (...args: string[]): string => execFileSync('tmux', ['-L', socket, ...args], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
   const screen = (): string => tmux('capture-pane', '-p', '-t', 'watch');
   async function waitFor(test: (text: string) => boolean, what: string, timeoutMs = 8000): Promise<string> {
     const start = Date.now();
