@@ -17,6 +17,7 @@ import { isEvaluationPoint } from '../analysis/evaluation-schedule.js';
 import type { RunDiagnosis } from '../analysis/diagnosis.js';
 import { PaceMeter } from './pace-meter.js';
 import { TypedEmitter } from './typed-emitter.js';
+import { InputError } from '../errors.js';
 import type { MonitorPace, RunMonitor, RunMonitorEvents, RunMonitorOptions } from './run-monitor-types.js';
 
 /** Lines collected before the parser is chosen (fewer when the log is shorter or goes quiet). */
@@ -42,8 +43,10 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
   let restartBeforeParser = false;
   let detectionTimer: NodeJS.Timeout | undefined;
   let latest: RunDiagnosis | undefined;
-  let latestRecords = -1;
-  let evaluatedRecords = -1;
+  /** Bumped on every record (and crash line): what a cached diagnosis is keyed by. */
+  let revision = 0;
+  let latestRevision = -1;
+  let changedSinceEvaluation = true;
   let addedInBatch = 0;
   let timelineSeen = 0;
   let finished: RunDiagnosis | undefined;
@@ -51,7 +54,11 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
   const infoOf = (name: string): SeriesInfo => parser?.seriesInfo().get(name) ?? { name, kind: 'quantity' };
 
   function onRecord(record: LogRecord): void {
+    const before = store.records;
     store.add(record, infoOf);
+    changedSinceEvaluation = true;
+    revision++;
+    if (store.records === before) return; // a crash line outside any iteration: judged at the next evaluation
     addedInBatch++;
     if (analyse && isEvaluationPoint(store.records)) evaluate();
   }
@@ -70,8 +77,8 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     syncSeriesInfo();
     const diagnosis = judge.update(store.snapshot());
     latest = diagnosis;
-    latestRecords = store.records;
-    evaluatedRecords = store.records;
+    latestRevision = revision;
+    changedSinceEvaluation = false;
     for (const change of diagnosis.timeline.slice(timelineSeen)) events.emit('state-change', change);
     timelineSeen = diagnosis.timeline.length;
     events.emit('diagnosis', diagnosis);
@@ -95,6 +102,16 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     feed(lines);
   }
 
+  /** Early choice on a quiet live log: a log that so far holds only a banner is not an error yet;
+   * try again when more lines arrive (or at DETECTION_LINES, or at the end, where it is final). */
+  function startParserIfRecognised(): void {
+    try {
+      startParser();
+    } catch (error) {
+      if (!(error instanceof InputError)) throw error;
+    }
+  }
+
   function feed(lines: readonly string[]): void {
     addedInBatch = 0;
     const p = parser as RecordParser;
@@ -116,7 +133,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
       if (detectionTimer !== undefined) clearTimeout(detectionTimer);
       detectionTimer = setTimeout(() => {
         detectionTimer = undefined;
-        if (parser === undefined && pending.length > 0) guarded(startParser);
+        if (parser === undefined && pending.length > 0) guarded(startParserIfRecognised);
       }, DETECTION_QUIET_MS);
     }
     pace.setRecords(store.records);
@@ -150,14 +167,14 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
 
   function finalDiagnosis(): RunDiagnosis {
     if (!analyse) return peek();
-    return evaluatedRecords === store.records && latest !== undefined ? latest : evaluate();
+    return !changedSinceEvaluation && latest !== undefined ? latest : evaluate();
   }
 
   function peek(): RunDiagnosis {
-    if (latest === undefined || latestRecords !== store.records) {
+    if (latest === undefined || latestRevision !== revision) {
       syncSeriesInfo();
       latest = judge.peek(store.snapshot());
-      latestRecords = store.records;
+      latestRevision = revision;
     }
     return latest;
   }

@@ -75,6 +75,8 @@ export class SeriesStore {
   add(record: LogRecord, infoOf: (name: string) => SeriesInfo): void {
     if (record.restart && this.recordCount > 0) this.restartIterations.push(record.iteration);
     if (record.failure !== undefined && this.failureText === undefined) this.failureText = record.failure;
+    // A crash line outside any iteration carries no values: it marks the run, it is not an iteration.
+    if (record.values.size === 0 && record.failure !== undefined) return;
     for (const [name, value] of record.values) {
       let column = this.columns.get(name);
       if (column === undefined) {

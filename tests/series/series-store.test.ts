@@ -79,3 +79,13 @@ describe('SeriesStore', () => {
     expect(() => new SeriesStore(capacity)).toThrow(RangeError);
   });
 });
+
+describe('SeriesStore and crash lines', () => {
+  it('keeps the failure of a crash line that carries no values without counting it as an iteration', () => {
+    const store = new SeriesStore();
+    store.add(record(1, { r: 1 }), residual);
+    store.add(record(1, {}, { failure: 'FATAL: out of memory' }), residual);
+    expect(store.records).toBe(1);
+    expect(store.snapshot().failure).toBe('FATAL: out of memory');
+  });
+});
