@@ -3,17 +3,24 @@
  * or diverge, live in the dashboard, or (with --no-ui, or when stdout is not a terminal) run it to
  * the end and print the `check` result.
  *
+ * `settle demo --study` runs the healthy case on three grids (src/demo/grid-study-plan.ts), unpaced,
+ * writes the three logs to a temporary folder (or a new folder given by --out), hands them to the
+ * real `settle compare` path (parse → analysis → Grid Convergence Index, Celik et al. 2008) for the
+ * hot-wall Nusselt number, and prints its result followed by the benchmark value of de Vahl Davis
+ * (1983) (src/demo/cavity-benchmark.ts).
+ *
  * The solver runs in a child process appending to a log (a temporary one unless --out is given),
  * at most DEMO_RATE iterations per second so the dashboard visibly grows. When the dashboard closes
  * the solver is stopped and the temporary folder removed. --out never overwrites an existing file.
  */
 import { fork, type ChildProcess } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, rmSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { Writable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
 import { Option, type Command } from 'commander';
-import { UsageError } from '../errors.js';
+import { InputError, UsageError } from '../errors.js';
 import { DEFAULT_CRITERIA, type Criteria } from '../analysis/criteria.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import { parsePositiveNumber } from './common-options.js';
@@ -21,6 +28,8 @@ import { SCENARIOS, SCENARIO_NAMES, isScenarioName, type ScenarioName } from '..
 import { LOG_FORMATS, isLogFormat, type LogFormat } from '../demo/log-writers.js';
 import { DEMO_DEFAULTS } from '../demo/run-cavity-scenario.js';
 import type { DemoProcessArguments } from '../demo/write-cavity-log.js';
+import { benchmarkJson, benchmarkText, compareWithBenchmark, rayleighText } from '../demo/cavity-benchmark.js';
+import { STUDY_GRID_STEP, STUDY_TARGET, defaultStudyCoarseGrid, studyGrids } from '../demo/grid-study-plan.js';
 
 /** Iterations per second the demo solver writes at most (live mode). */
 export const DEMO_RATE = 250;
@@ -39,10 +48,23 @@ export interface DemoOptions {
   readonly out?: string;
 }
 
+/** `settle demo --study`. */
+export interface DemoStudyOptions {
+  readonly rayleigh: number;
+  /** Cells per side of the three grids, fine first. */
+  readonly grids: readonly [number, number, number];
+  readonly format: LogFormat;
+  readonly json: boolean;
+  /** A new folder to keep the three logs in (otherwise a temporary one, removed afterwards). */
+  readonly out?: string;
+}
+
 interface RawDemoOptions {
   scenario: string;
   ra: string;
-  grid: string;
+  /** Undefined when not given: the demo's default grid, or the study's default coarse grid. */
+  grid?: string;
+  json?: boolean;
   ui: boolean;
   out?: string;
   format: string;
@@ -61,22 +83,15 @@ const EXTENSIONS: Record<LogFormat, string> = { kv: 'log', block: 'log', table: 
 
 /** Check and type the command line (pure; throws UsageError). */
 export function demoOptionsOf(raw: RawDemoOptions, stdoutIsTerminal: boolean): DemoOptions {
-  if (raw.study) {
-    throw new UsageError('settle demo --study is not available yet: it needs `settle compare`, which has not landed',
-      'run the healthy case on several grids by hand: settle demo --no-ui --grid 16, then 24, then 32');
-  }
+  if (raw.json) throw new UsageError('--json goes with --study (the grid study\'s result as JSON)', 'for example settle demo --study --json');
   if (!isScenarioName(raw.scenario)) {
     throw new UsageError(`unknown scenario '${raw.scenario}'`, `choose one of: ${SCENARIO_NAMES.join(', ')}`);
   }
   if (!isLogFormat(raw.format)) {
     throw new UsageError(`unknown log format '${raw.format}'`, `choose one of: ${LOG_FORMATS.join(', ')}`);
   }
-  const rayleigh = parsePositiveNumber('--ra', raw.ra);
-  if (rayleigh > DEMO_RA_MAX) {
-    throw new UsageError(`--ra ${raw.ra} is above ${DEMO_RA_MAX.toExponential()}, where this cavity's flow stops being steady and the demo's explicit method gets slow`,
-      'use a Rayleigh number from 1e3 to 1e6 (1e5 and above want --grid 64 or finer)');
-  }
-  const cells = parsePositiveNumber('--grid', raw.grid, { integer: true });
+  const rayleigh = rayleighOf(raw.ra);
+  const cells = parsePositiveNumber('--grid', raw.grid ?? String(DEMO_DEFAULTS.cells), { integer: true });
   if (cells < DEMO_GRID_RANGE.min || cells > DEMO_GRID_RANGE.max) {
     throw new UsageError(`--grid ${raw.grid} is outside ${DEMO_GRID_RANGE.min} to ${DEMO_GRID_RANGE.max} cells per side`,
       `for example --grid ${DEMO_DEFAULTS.cells}`);
@@ -88,6 +103,38 @@ export function demoOptionsOf(raw: RawDemoOptions, stdoutIsTerminal: boolean): D
   return { scenario: raw.scenario, rayleigh, cells, format: raw.format, ui: raw.ui && stdoutIsTerminal, out: raw.out };
 }
 
+function rayleighOf(text: string): number {
+  const rayleigh = parsePositiveNumber('--ra', text);
+  if (rayleigh > DEMO_RA_MAX) {
+    throw new UsageError(`--ra ${text} is above ${DEMO_RA_MAX.toExponential()}, where this cavity's flow stops being steady and the demo's explicit method gets slow`,
+      'use a Rayleigh number from 1e3 to 1e6 (1e5 and above want --grid 64 or finer)');
+  }
+  return rayleigh;
+}
+
+/** Check and type the command line of `settle demo --study` (pure but for the --out check; throws UsageError). */
+export function demoStudyOptionsOf(raw: RawDemoOptions): DemoStudyOptions {
+  if (raw.scenario !== 'healthy') {
+    throw new UsageError(`--study runs the healthy case only, not '${raw.scenario}'`, 'drop --scenario (a grid study needs converged runs)');
+  }
+  if (!isLogFormat(raw.format)) {
+    throw new UsageError(`unknown log format '${raw.format}'`, `choose one of: ${LOG_FORMATS.join(', ')}`);
+  }
+  const rayleigh = rayleighOf(raw.ra);
+  const coarse = raw.grid === undefined ? defaultStudyCoarseGrid(rayleigh) : parsePositiveNumber('--grid', raw.grid, { integer: true });
+  const coarsest = Math.ceil(DEMO_GRID_RANGE.min / STUDY_GRID_STEP) * STUDY_GRID_STEP;
+  const finest = Math.floor(DEMO_GRID_RANGE.max / 2.25 / STUDY_GRID_STEP) * STUDY_GRID_STEP;
+  if (coarse % STUDY_GRID_STEP !== 0 || coarse < coarsest || coarse > finest) {
+    throw new UsageError(`with --study, --grid is the coarse grid of three (refined by 1.5 twice) and must be a multiple of ${STUDY_GRID_STEP} from ${coarsest} to ${finest}, got ${raw.grid}`,
+      `for example --grid ${defaultStudyCoarseGrid(rayleigh)} (grids ${studyGrids(defaultStudyCoarseGrid(rayleigh)).slice().reverse().join(', ')})`);
+  }
+  if (raw.out !== undefined && existsSync(raw.out)) {
+    throw new UsageError(`--out ${raw.out} already exists; settle demo --study keeps its three logs in a new folder and does not write into existing ones`,
+      'give the name of a folder to create');
+  }
+  return { rayleigh, grids: studyGrids(coarse), format: raw.format, json: raw.json === true, out: raw.out };
+}
+
 export function registerDemoCommand(program: Command): void {
   program
     .command('demo')
@@ -95,12 +142,17 @@ export function registerDemoCommand(program: Command): void {
     .addOption(new Option('--scenario <name>', `what the run does: ${SCENARIO_NAMES.map((n) => `${n} (${SCENARIOS[n].expected})`).join(', ')}`)
       .default('healthy'))
     .option('--ra <number>', 'Rayleigh number', String(DEMO_DEFAULTS.rayleigh))
-    .option('--grid <cells>', 'cells per side of the uniform grid', String(DEMO_DEFAULTS.cells))
+    .option('--grid <cells>', `cells per side of the uniform grid (default ${DEMO_DEFAULTS.cells}; with --study, the coarse grid: default 16, 32 above Ra 1e4)`)
     .option('--no-ui', 'run the solver to the end and print the check result instead of the dashboard')
-    .option('--out <file>', 'keep the log in this new file (never overwrites) instead of a temporary one')
+    .option('--out <path>', 'keep the log in this new file (never overwrites) instead of a temporary one; with --study, a new folder for the three logs')
     .addOption(new Option('--format <format>', 'log format the solver writes').choices([...LOG_FORMATS]).default('kv'))
-    .option('--study', 'grid study with the benchmark value (not available yet)')
+    .option('--study', 'grid study: the healthy case on three grids, the compare result for nu_hot, and the benchmark value')
+    .option('--json', 'with --study: print the compare JSON with a benchmark field')
     .action(async (raw: RawDemoOptions) => {
+      if (raw.study) {
+        process.exitCode = await runDemoStudy(demoStudyOptionsOf(raw), process.stdout, process.stderr);
+        return;
+      }
       const options = demoOptionsOf(raw, process.stdout.isTTY === true);
       process.exitCode = await runDemo(options, process.stdout, process.stderr);
     });
@@ -146,6 +198,83 @@ export async function runDemo(options: DemoOptions, stdout: NodeJS.WritableStrea
     if (child !== undefined) await stopSolver(child);
     if (tempDir !== undefined) rmSync(tempDir, { recursive: true, force: true });
   }
+}
+
+/**
+ * The grid study: run the healthy case on the three grids (coarse first: the cheapest run fails
+ * first), unpaced, each to STUDY_TARGET; then `runCompare` on the three logs for nu_hot with
+ * cells = grid² in 2-D, and the benchmark comparison. Progress lines go to stderr. Resolves with 0
+ * when the study was made; a run that does not reach the solver's target is an InputError.
+ */
+export async function runDemoStudy(options: DemoStudyOptions, stdout: NodeJS.WritableStream, stderr: NodeJS.WritableStream): Promise<number> {
+  if (options.out !== undefined) {
+    try {
+      mkdirSync(options.out);
+    } catch {
+      throw new UsageError(`cannot create the folder ${options.out} (it exists, or its parent does not, or is not writable)`, 'give --out the name of a new folder in a writable place');
+    }
+  }
+  const dir = options.out ?? mkdtempSync(path.join(tmpdir(), 'settle-demo-study-'));
+  const ra = rayleighText(options.rayleigh);
+  const logs = options.grids.map((cells) => path.join(dir, `cavity-ra${ra}-grid${cells}.${EXTENSIONS[options.format]}`));
+  try {
+    const { writeCavityLog } = await import('../demo/write-cavity-log.js');
+    stderr.write(`settle demo --study: healthy cavity at Ra ${ra} on grids ${[...options.grids].reverse().join(', ')} (refinement ratio 1.5)\n`);
+    for (const i of [2, 1, 0]) {
+      const cells = options.grids[i];
+      const fd = openSync(logs[i], 'wx');
+      let summary;
+      try {
+        summary = writeCavityLog({ scenario: 'healthy', rayleigh: options.rayleigh, cells, format: options.format, target: STUDY_TARGET }, (text) => writeSync(fd, text));
+      } finally {
+        closeSync(fd);
+      }
+      const nu = summary.last === undefined ? 'none' : summary.last.nuHot.toFixed(4);
+      stderr.write(`grid ${cells}: ${summary.iterations.toLocaleString('en-US')} iterations, nu_hot ${nu}\n`);
+      if (summary.end !== 'target') {
+        const why = summary.end === 'blow-up' ? 'was stopped by the solver\'s divergence guard' : 'used its iteration budget';
+        throw new InputError(`the healthy case at Ra ${ra} on grid ${cells} ${why}, so it cannot enter a grid study`,
+          options.rayleigh > 1e5 ? 'use --ra 1e5 or lower: above it this explicit solver needs finer grids than the demo allows' : 'use a finer coarse grid, e.g. --grid 32');
+      }
+    }
+    const { runCompare } = await import('./compare-command.js');
+    const captured = textSink();
+    const study = await runCompare({
+      logs, quantity: 'nu_hot', cells: options.grids.map((n) => n * n), dimensions: 2, allowUnsettled: false, json: options.json,
+      criteria: DEFAULT_CRITERIA, parserFiles: [], parserId: `settle-${options.format}`, kindOverrides: { residual: [], quantity: ['nu_hot'] }, stdout: captured.stream,
+    });
+    const gci = study.gci;
+    const comparison = compareWithBenchmark({
+      rayleigh: options.rayleigh, fine: study.grids[0].value,
+      extrapolated: gci.convergence === 'degenerate' ? undefined : gci.extrapolated,
+      band: gci.convergence === 'degenerate' ? undefined : gci.gciFineAbsolute,
+    });
+    const kept = options.out === undefined ? null : dir;
+    if (options.json) {
+      const result = JSON.parse(captured.text()) as Record<string, unknown>;
+      result.benchmark = benchmarkJson(comparison);
+      result.demo = { rayleigh: options.rayleigh, cellsPerSide: options.grids, refinementRatio: 1.5, logsKeptIn: kept };
+      stdout.write(`${JSON.stringify(result)}\n`);
+    } else {
+      const where = kept === null ? 'The logs were in a temporary folder, now removed (keep them with --out DIR).' : `The logs are in ${kept}.`;
+      stdout.write(`${captured.text()}\n${benchmarkText(comparison)}${where}\n`);
+    }
+    return 0;
+  } finally {
+    if (options.out === undefined) rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/** A stream that keeps what is written to it. */
+function textSink(): { stream: NodeJS.WritableStream; text: () => string } {
+  const chunks: string[] = [];
+  const stream = new Writable({
+    write(chunk: Buffer | string, _encoding, callback) {
+      chunks.push(typeof chunk === 'string' ? chunk : chunk.toString('utf8'));
+      callback();
+    },
+  });
+  return { stream, text: () => chunks.join('') };
 }
 
 /** The dashboard and the check live in other commands' modules, loaded only when needed. */

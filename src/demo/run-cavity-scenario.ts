@@ -2,7 +2,7 @@
  * Run one demo scenario to its end, one iteration at a time, and turn iterations into log rows.
  * Pure: the caller decides where rows go and how fast.
  *
- * A run ends when every residual is below SOLVER_TARGET (converged), when a residual exceeds
+ * A run ends when every residual is below SOLVER_TARGET (or the caller's target) (converged), when a residual exceeds
  * SOLVER_BLOW_UP or is not finite (the solver's divergence guard), or at the scenario's iteration
  * budget.
  */
@@ -16,6 +16,8 @@ export interface CavityRunOptions {
   readonly cells: number;
   /** Overrides the scenario's iteration budget. */
   readonly maxIterations?: number;
+  /** Overrides the solver's target (default SOLVER_TARGET): the run ends when every residual is below it. */
+  readonly target?: number;
 }
 
 export type CavityRunEnd = 'target' | 'blow-up' | 'budget';
@@ -29,12 +31,13 @@ export function* runCavityScenario(options: CavityRunOptions): Generator<CavityI
   const scenario = SCENARIOS[options.scenario];
   const solver = createCavitySolver({ ...scenario.solver, rayleigh: options.rayleigh, cells: options.cells });
   const budget = options.maxIterations ?? scenario.maxIterations(options.cells);
+  const target = options.target ?? SOLVER_TARGET;
   for (let k = 0; k < budget; k++) {
     const it = solver.step();
     yield it;
     const residuals = [it.resPsi, it.resOmega, it.resT];
     if (residuals.some((r) => !(r <= SOLVER_BLOW_UP))) return 'blow-up';
-    if (residuals.every((r) => r < SOLVER_TARGET)) return 'target';
+    if (residuals.every((r) => r < target)) return 'target';
   }
   return 'budget';
 }

@@ -16,6 +16,8 @@ export interface CavityLogSummary {
   /** Iterations the solver ran. */
   readonly iterations: number;
   readonly end: CavityRunEnd;
+  /** The last iteration the solver ran (undefined only if it ran none). */
+  readonly last?: CavityIteration;
 }
 
 /** What `settle demo` passes to the solver process. */
@@ -36,14 +38,16 @@ export function writeCavityLog(options: CavityLogOptions, write: (text: string) 
   let buffer = '';
   let iterations = 0;
   let unwritten: CavityIteration | undefined;
+  let last: CavityIteration | undefined;
   for (;;) {
     const next = run.next();
     if (next.done) {
       // The generator says it has ended only after its last iteration: write that one if skipped.
       if (unwritten !== undefined) buffer += writer.row(cavityLogRow(unwritten));
       if (buffer.length > 0) write(buffer);
-      return { iterations, end: next.value };
+      return { iterations, end: next.value, last };
     }
+    last = next.value;
     iterations = next.value.iteration;
     if (iterations % every === 0 || iterations === 1) {
       buffer += writer.row(cavityLogRow(next.value));
