@@ -8,14 +8,13 @@
  * same code. Bad flags are refused before any log is read. The heavy parts (monitor, analysis) load
  * lazily so the command starts fast.
  */
-import { accessSync, constants as fsConstants, statSync } from 'node:fs';
 import { constants as osConstants } from 'node:os';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import { EXIT_CODES, type RunDiagnosis } from '../analysis/diagnosis.js';
-import { InputError, UsageError } from '../errors.js';
 import type { KindOverrides } from '../parse/record-parser.js';
-import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { readGateFlags, type GateSettings, type RawGateFlags } from '../gate/read-gate-flags.js';
 import { checkProcessRunning, checkStopFile } from '../gate/check-gate-inputs.js';
@@ -27,49 +26,20 @@ export interface RunCheckOptions {
   logs: string[];
   json: boolean;
   criteria: Criteria;
-  parserFiles: string[];
+  readonly parserFiles: readonly string[];
   parserId?: string;
   kindOverrides: KindOverrides;
   stdout: NodeJS.WritableStream;
   pollMs?: number;
 }
 
-/** Refuse, before reading anything, logs that cannot be read (exit 3) and a doubled standard input. */
-function checkLogsReadable(logs: readonly string[]): void {
-  if (logs.filter((log) => log === '-').length > 1) throw new UsageError('standard input (-) can be read only once', 'name - at most once');
-  for (const log of logs) {
-    if (log === '-') continue;
-    let isFile = false;
-    try {
-      isFile = statSync(log).isFile();
-    } catch {
-      throw new InputError(`cannot read ${log}: no such file`, 'check the path (settle check reads logs that exist; use --follow to wait for one)');
-    }
-    if (!isFile) throw new InputError(`cannot read ${log}: not a file`, 'name the log file itself, not its folder');
-    try {
-      accessSync(log, fsConstants.R_OK);
-    } catch {
-      throw new InputError(`cannot read ${log}: permission denied`, 'check the file permissions');
-    }
-  }
-}
-
 /** Post-mortem check of each log in turn; prints the text block or the JSON document and returns
  * the exit code of the worst verdict. */
 export async function runCheck(options: RunCheckOptions): Promise<number> {
-  checkLogsReadable(options.logs);
-  const { createRunMonitor } = await import('../monitor/run-monitor.js');
+  checkLogsReadable(options.logs, 'check the path (settle check reads logs that exist; use --follow to wait for one)');
   const runs: { log: string; diagnosis: RunDiagnosis }[] = [];
   for (const log of options.logs) {
-    const monitor = createRunMonitor({
-      paths: [log],
-      follow: false,
-      pollMs: options.pollMs,
-      parserFiles: options.parserFiles,
-      parserId: options.parserId,
-      kindOverrides: options.kindOverrides,
-      criteria: options.criteria,
-    });
+    const monitor = await postMortemMonitor(log, options, options.criteria);
     runs.push({ log, diagnosis: await monitor.run() });
   }
   options.stdout.write(options.json ? `${JSON.stringify(checkJson(runs))}\n` : formatCheckText(runs));
@@ -124,13 +94,6 @@ function checkGateInputs(gate: GateSettings, logs: readonly string[]): string[] 
   return warnings;
 }
 
-function isFile(value: string): boolean {
-  try {
-    return statSync(value).isFile();
-  } catch {
-    return false;
-  }
-}
 
 type CheckFlags = SourceOptions & RawGateFlags & Record<string, unknown>;
 
@@ -156,15 +119,10 @@ Exit codes: ${Object.entries(EXIT_CODES).map(([verdict, code]) => `${code} ${ver
   2 usage error, 3 unreadable input. Several logs: the worst verdict decides.`);
   command.action(async (logs: string[], flags: CheckFlags) => {
     const gate = readGateFlags(flags, logs, osConstants.signals);
-    const criteria = criteriaFromOptions(flags);
-    const selection = parserSelectionOf(flags, isFile);
     const common = {
       json: flags.json === true,
-      criteria,
-      parserFiles: selection.files,
-      parserId: selection.id,
-      kindOverrides: kindOverridesOf(flags),
-      pollMs: pollMsOf(flags),
+      criteria: criteriaFromOptions(flags),
+      ...runReadingOf(flags),
       stdout: process.stdout,
     };
     if (gate === undefined) {

@@ -6,6 +6,7 @@
  */
 import { Command, Option } from 'commander';
 import type { KindOverrides } from '../parse/record-parser.js';
+import { statSync } from 'node:fs';
 import { UsageError } from '../errors.js';
 
 export interface SourceOptions {
@@ -56,4 +57,25 @@ export function parserSelectionOf(options: SourceOptions, isFile: (value: string
     else throw new UsageError(`--parser names two spec ids ('${id}' and '${value}')`, 'give one spec id, or spec files');
   }
   return { files, id };
+}
+
+/** How every command reads a run, from its source flags: parser files or id, kind overrides, polling. */
+export interface RunReading {
+  readonly parserFiles: readonly string[];
+  readonly parserId?: string;
+  readonly kindOverrides: KindOverrides;
+  readonly pollMs?: number;
+}
+
+export function runReadingOf(options: SourceOptions): RunReading {
+  const selection = parserSelectionOf(options, isExistingFile);
+  return { parserFiles: selection.files, parserId: selection.id, kindOverrides: kindOverridesOf(options), pollMs: pollMsOf(options) };
+}
+
+export function isExistingFile(value: string): boolean {
+  try {
+    return statSync(value).isFile();
+  } catch {
+    return false;
+  }
 }

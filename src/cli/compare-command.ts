@@ -8,14 +8,14 @@
  * `--quantity` is the source option of the same name: naming the study's quantity also makes settle
  * treat that series as a monitored quantity. Here it must be given exactly once, with a plain name.
  */
-import { statSync } from 'node:fs';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import type { RunDiagnosis } from '../analysis/diagnosis.js';
 import { UsageError } from '../errors.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import type { MeshStudy } from '../report/mesh-study.js';
-import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { checkReportLogs } from './report-command.js';
 
@@ -49,19 +49,10 @@ export async function runCompare(options: RunCompareOptions): Promise<MeshStudy>
   }
   if (options.logs.includes('-')) throw new UsageError('compare reads three log files; standard input (-) is not one of them', 'save each run\'s log to a file first');
   checkReportLogs(options.logs);
-  const { createRunMonitor } = await import('../monitor/run-monitor.js');
   const { meshStudy } = await import('../report/mesh-study.js');
   const diagnoses: RunDiagnosis[] = [];
   for (const log of options.logs) {
-    const monitor = createRunMonitor({
-      paths: [log],
-      follow: false,
-      pollMs: options.pollMs,
-      parserFiles: options.parserFiles,
-      parserId: options.parserId,
-      kindOverrides: options.kindOverrides,
-      criteria: options.criteria,
-    });
+    const monitor = await postMortemMonitor(log, options, options.criteria);
     diagnoses.push(await monitor.run());
   }
   const study = meshStudy(options.logs.map((log, i) => ({ log, cells: options.cells[i], diagnosis: diagnoses[i] })), options.quantity, options.dimensions, options.allowUnsettled);
@@ -70,13 +61,6 @@ export async function runCompare(options: RunCompareOptions): Promise<MeshStudy>
   return study;
 }
 
-function isFile(value: string): boolean {
-  try {
-    return statSync(value).isFile();
-  } catch {
-    return false;
-  }
-}
 
 type CompareFlags = SourceOptions & Record<string, unknown> & { cells?: string; dims?: string; json?: boolean; allowUnsettled?: boolean };
 
@@ -105,11 +89,9 @@ export function registerCompareCommand(program: Command): void {
     if (flags.cells === undefined) throw new UsageError('compare needs --cells N1,N2,N3: the cell counts of the grids, fine to coarse', 'for example --cells 64000,8000,1000');
     const cells = parseCellCounts(flags.cells, logs.length);
     const dimensions = parseDimensions(flags.dims);
-    const criteria = criteriaFromOptions(flags);
-    const selection = parserSelectionOf(flags, isFile);
     await runCompare({
-      logs, quantity, cells, dimensions, allowUnsettled: flags.allowUnsettled === true, json: flags.json === true, criteria,
-      parserFiles: selection.files, parserId: selection.id, kindOverrides: kindOverridesOf(flags), pollMs: pollMsOf(flags), stdout: process.stdout,
+      logs, quantity, cells, dimensions, allowUnsettled: flags.allowUnsettled === true, json: flags.json === true,
+      criteria: criteriaFromOptions(flags), ...runReadingOf(flags), stdout: process.stdout,
     });
   });
 }

@@ -16,7 +16,8 @@ import { InputError, UsageError } from '../errors.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import { REPORT_FORMATS, type ReportFormat, type ReportRun } from '../report/report-input.js';
 import type { ProgressStream } from '../report/progress-bar.js';
-import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
 export interface RunReportOptions {
@@ -104,19 +105,10 @@ export function checkReportOutput(output: string, logs: readonly string[]): void
 export async function runReport(options: RunReportOptions): Promise<void> {
   checkReportLogs(options.logs);
   if (options.output !== undefined) checkReportOutput(options.output, options.logs);
-  const { createRunMonitor } = await import('../monitor/run-monitor.js');
   const { createProgressBar } = await import('../report/progress-bar.js');
   const runs: ReportRun[] = [];
   for (const log of options.logs) {
-    const monitor = createRunMonitor({
-      paths: [log],
-      follow: false,
-      pollMs: options.pollMs,
-      parserFiles: options.parserFiles,
-      parserId: options.parserId,
-      kindOverrides: options.kindOverrides,
-      criteria: options.criteria,
-    });
+    const monitor = await postMortemMonitor(log, options, options.criteria);
     const warnings: string[] = [];
     const bar = createProgressBar(options.stderr, log === '-' ? 'standard input' : log);
     monitor.on('source', (event) => {
@@ -152,13 +144,6 @@ export async function runReport(options: RunReportOptions): Promise<void> {
   }
 }
 
-function isFile(value: string): boolean {
-  try {
-    return statSync(value).isFile();
-  } catch {
-    return false;
-  }
-}
 
 type ReportFlags = SourceOptions & Record<string, unknown> & { format?: string; output?: string };
 
@@ -172,17 +157,12 @@ export function registerReportCommand(program: Command): void {
   addCriteriaOptions(addSourceOptions(command));
   command.action(async (logs: string[], flags: ReportFlags) => {
     const format = reportFormatOf(flags.format, flags.output);
-    const criteria = criteriaFromOptions(flags);
-    const selection = parserSelectionOf(flags, isFile);
     await runReport({
       logs,
       format,
       output: flags.output,
-      criteria,
-      parserFiles: selection.files,
-      parserId: selection.id,
-      kindOverrides: kindOverridesOf(flags),
-      pollMs: pollMsOf(flags),
+      criteria: criteriaFromOptions(flags),
+      ...runReadingOf(flags),
       stdout: process.stdout,
       stderr: process.stderr,
       version: program.version(),

@@ -3,18 +3,18 @@
  * opens its run; several logs, a folder or a glob open an overview of runs, worst first. Without a
  * terminal it prints one line per state change instead.
  */
-import { openSync, statSync } from 'node:fs';
+import { openSync } from 'node:fs';
 import tty from 'node:tty';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import type { KindOverrides } from '../parse/record-parser.js';
-import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { SettleError, UsageError } from '../errors.js';
 
 export interface WatchOptions {
   readonly paths: string[];
-  readonly parserFiles: string[];
+  readonly parserFiles: readonly string[];
   readonly parserId?: string;
   readonly kindOverrides: KindOverrides;
   readonly criteria: Criteria;
@@ -100,20 +100,6 @@ export function registerWatchCommand(program: Command): void {
   addSourceOptions(command);
   addCriteriaOptions(command);
   command.action(async (logs: string[], flags: SourceOptions & Record<string, unknown>) => {
-    const selection = parserSelectionOf(flags, (value) => {
-      try {
-        return statSync(value).isFile();
-      } catch {
-        return false;
-      }
-    });
-    process.exitCode = await runWatch({
-      paths: logs,
-      parserFiles: selection.files,
-      parserId: selection.id,
-      kindOverrides: kindOverridesOf(flags),
-      criteria: criteriaFromOptions(flags),
-      pollMs: pollMsOf(flags),
-    });
+    process.exitCode = await runWatch({ paths: logs, ...runReadingOf(flags), criteria: criteriaFromOptions(flags) });
   });
 }
