@@ -15,7 +15,7 @@
  */
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { line } from 'd3-shape';
-import { downsampleLttbFinite } from './downsample-lttb.js';
+import { downsampleLttbSorted } from '../series/downsample-lttb.js';
 
 export interface ChartSeries {
   readonly name: string;
@@ -142,7 +142,7 @@ function prepare(series: ChartSeries, log: boolean, budget: number): Prepared {
     }
     const share = Math.max(3, Math.round((budget * length) / Math.max(1, finiteCount)));
     if (points.length > 0) points.push([Number.NaN, Number.NaN]);
-    for (const i of downsampleLttbFinite(xs, ys, share)) points.push([xs[i], ys[i]]);
+    for (const i of downsampleLttbSorted(xs, ys, 0, xs.length, share)) points.push([xs[i], ys[i]]);
   }
   return { name: series.name, points, blowUps };
 }

@@ -13,7 +13,7 @@ import type { ChartLevel, ChartLine, ChartModel, HeaderModel, RunViewModel, Seri
 import { dashboardLayout, layoutFits } from './dashboard-layout.js';
 import type { ViewState } from './view-state.js';
 import { chartGeometry } from './braille-chart.js';
-import { downsampleLttbSorted } from './downsample-lttb.js';
+import { downsampleLttbSorted } from '../series/downsample-lttb.js';
 import { decadeTicks, niceTicks } from './axis-ticks.js';
 import { formatAge, formatCount, formatCountShort, formatDecade, formatDuration, formatResidual, formatValue } from './format-figures.js';
 

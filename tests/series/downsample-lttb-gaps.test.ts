@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { downsampleLttbSorted } from '../../src/ui/downsample-lttb.js';
+import { downsampleLttbSorted } from '../../src/series/downsample-lttb.js';
 
 const range = (n: number): number[] => Array.from({ length: n }, (_, i) => i);
 

@@ -16,12 +16,16 @@
 
 /** Indices (ascending, into `x`/`y`) of at most `threshold` points of the range [start, end) chosen by
  * LTTB. `x` must be ascending within the range. When the range has at most `threshold` points,
- * every index is returned. `threshold` below 3 keeps the first and last points only. */
+ * every index is returned; a threshold of 2 keeps the first and last points, 1 the first, 0 none.
+ * Shared by the dashboard (braille charts) and the report (SVG charts).
+ *
+ * Example: downsampleLttbSorted([0,1,2,3,4], [0,0,5,0,0], 0, 5, 3) → [0, 2, 4] (the spike survives). */
 export function downsampleLttbSorted(x: ArrayLike<number>, y: ArrayLike<number>, start: number, end: number, threshold: number): number[] {
+  if (!(Number.isInteger(threshold) && threshold >= 0)) throw new RangeError(`LTTB threshold must be a whole number ≥ 0, got ${threshold}`);
   const n = end - start;
   if (n <= 0) return [];
   if (n <= threshold) return Array.from({ length: n }, (_, i) => start + i);
-  if (threshold < 3) return n === 1 ? [start] : [start, end - 1];
+  if (threshold < 3) return [start, end - 1].slice(0, threshold);
 
   const chosen: number[] = [start];
   const bucketSize = (n - 2) / (threshold - 2);
