@@ -7,7 +7,7 @@ import { existsSync, statSync } from 'node:fs';
 import type { Command } from 'commander';
 import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
 import { DEFAULT_CRITERIA } from '../analysis/criteria.js';
-import { formatNumber, jsonNumber } from './format-number.js';
+import { formatNumber, jsonNumber } from '../text/format-number.js';
 
 export interface InspectSummary {
   readonly parser: string;

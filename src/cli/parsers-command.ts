@@ -8,7 +8,7 @@ import { resolve } from 'node:path';
 import { Command, Option } from 'commander';
 import type { LogRecord, SeriesKind } from '../parse/log-record.js';
 import type { LoadedSpec } from '../parse/loaded-spec.js';
-import { formatNumber } from './format-number.js';
+import { formatNumber } from '../text/format-number.js';
 
 const collect = (value: string, previous: string[]): string[] => [...previous, value];
 const FIRST_RECORDS = 5;

@@ -12,7 +12,7 @@
  * strings "NaN", "Infinity", "-Infinity" (JSON has no such numbers). Pure; O(series).
  */
 import { EXIT_CODES, type RunDiagnosis, type SeriesDiagnosis, type State } from '../analysis/diagnosis.js';
-import { jsonNumber } from '../cli/format-number.js';
+import { jsonNumber } from '../text/format-number.js';
 import { worstVerdict } from './worst-verdict.js';
 
 export type JsonNumber = number | string;

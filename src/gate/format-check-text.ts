@@ -13,7 +13,7 @@
  *   nu_hot   quantity  converged   2.243     mean 2.243 ± 0.0011
  */
 import { EXIT_CODES, type RunDiagnosis, type SeriesDiagnosis } from '../analysis/diagnosis.js';
-import { formatNumber } from '../cli/format-number.js';
+import { formatNumber } from '../text/format-number.js';
 import { worstVerdict } from './worst-verdict.js';
 
 /** Key figures of one series, comma-separated (empty when the analysis gave none). */

@@ -9,7 +9,7 @@
  * The `verdict` event is always the last line. Non-finite numbers are strings, as in `--json`. Pure.
  */
 import type { StateChange } from '../analysis/diagnosis.js';
-import { jsonNumber } from '../cli/format-number.js';
+import { jsonNumber } from '../text/format-number.js';
 import type { GateAction, GatePlan } from './plan-gate-actions.js';
 import { describeAction } from './plan-gate-actions.js';
 

@@ -6,7 +6,7 @@
  */
 import type { SeriesDiagnosis } from '../analysis/diagnosis.js';
 import { EXIT_CODES } from '../analysis/diagnosis.js';
-import { jsonNumber } from '../cli/format-number.js';
+import { jsonNumber } from '../text/format-number.js';
 import type { ReportInput, ReportRun } from './report-input.js';
 import { REPORT_CAUTIONS } from './report-cautions.js';
 import { worstOf } from './report-figures.js';

@@ -1,5 +1,5 @@
 /** A mesh study as text or JSON (settle compare). Pure. */
-import { formatNumber, jsonNumber } from '../cli/format-number.js';
+import { formatNumber, jsonNumber } from '../text/format-number.js';
 import type { MeshStudy } from './mesh-study.js';
 import { textTable } from './render-text-report.js';
 

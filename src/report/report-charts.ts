@@ -8,7 +8,7 @@ import type { SeriesDiagnosis } from '../analysis/diagnosis.js';
 import type { SeriesColumn } from '../series/series-column.js';
 import type { ReportRun } from './report-input.js';
 import { renderLineChartSvg, type ChartBand, type ChartRule } from './svg-line-chart.js';
-import { formatNumber } from '../cli/format-number.js';
+import { formatNumber } from '../text/format-number.js';
 
 export interface ReportChart {
   readonly title: string;

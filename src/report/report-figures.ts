@@ -5,7 +5,7 @@
 import type { Criteria } from '../analysis/criteria.js';
 import { SEVERITY, type RunDiagnosis, type SeriesDiagnosis, type State } from '../analysis/diagnosis.js';
 import type { RunSnapshot } from '../series/series-column.js';
-import { formatNumber } from '../cli/format-number.js';
+import { formatNumber } from '../text/format-number.js';
 
 export const num = (value: number | undefined, digits = 4): string => (value === undefined ? '' : formatNumber(value, digits));
 

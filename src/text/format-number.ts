@@ -1,4 +1,4 @@
-/** How numbers print in settle's text and JSON output. One style throughout. */
+/** How numbers print in settle's text and JSON output (check, inspect, report, gate events). One style throughout. */
 
 /** Compact text form: 4 significant digits, exponent form for very small or large magnitudes. */
 export function formatNumber(value: number, digits = 4): string {
