@@ -36,7 +36,7 @@ describe('demoOptionsOf', () => {
     [{ grid: '4' }, /outside 8 to 128/],
     [{ grid: '20.5' }, /--grid needs a positive whole number/],
     [{ grid: '500' }, /outside 8 to 128/],
-    [{ study: true }, /--study is not available yet/],
+    [{ json: true }, /--json goes with --study/],
   ])('rejects %o', (change, message) => {
     expect(() => demoOptionsOf({ ...raw, ...change }, true)).toThrow(message);
   });
