@@ -16,7 +16,7 @@ import type { KindOverrides } from '../parse/record-parser.js';
 import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
-import { readGateFlags, type GateSettings, type RawGateFlags } from '../gate/read-gate-flags.js';
+import { DEFAULT_MIN_ITERATIONS, readGateFlags, type GateSettings, type RawGateFlags } from '../gate/read-gate-flags.js';
 import { checkProcessRunning, checkStopFile } from '../gate/check-gate-inputs.js';
 import { checkJson } from '../gate/check-json.js';
 import { formatCheckText } from '../gate/format-check-text.js';
@@ -111,7 +111,7 @@ export function registerCheckCommand(program: Command): void {
     .option('--exec <command>', 'with --follow: run this shell command when acting; it gets SETTLE_VERDICT, SETTLE_REASON, SETTLE_LOG, SETTLE_EXIT_CODE')
     .option('--on <verdicts>', 'with --follow: verdicts that trigger the actions, comma-separated (default: converged,stalled,oscillating,diverging,failed)')
     .option('--events', 'with --follow: write one JSON object per state change to stdout (NDJSON), the verdict last')
-    .option('--min-iterations <n>', 'with --follow: never act before this many iterations (default 100)')
+    .option('--min-iterations <n>', `with --follow: never act before this many iterations (default ${DEFAULT_MIN_ITERATIONS})`)
     .option('--dry-run', 'with --follow: say what would be done, do nothing');
   addCriteriaOptions(addSourceOptions(command));
   command.addHelpText('after', `

@@ -16,7 +16,7 @@ import { parseSignalTarget, type SignalTarget } from './parse-signal-target.js';
 import { parseVerdictList } from './parse-verdict-list.js';
 
 /** Default of --min-iterations: nothing acts on a run younger than this (safe by default). */
-export const DEFAULT_MIN_ITERATIONS = 100;
+export const DEFAULT_MIN_ITERATIONS = 50;
 
 /** The raw values as commander hands them over (undefined when a flag was not given). */
 export interface RawGateFlags {

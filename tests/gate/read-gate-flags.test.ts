@@ -20,8 +20,8 @@ describe('readGateFlags', () => {
     expect([...(gate?.on ?? [])]).toEqual(['diverging']);
   });
 
-  it('uses 100 iterations as the default minimum (our choice; see DEVELOPERS.md decisions)', () => {
-    expect(DEFAULT_MIN_ITERATIONS).toBe(100);
+  it('uses 50 iterations as the default minimum (our choice: late enough to skip start-up, early enough to stop a fast blow-up; see DEVELOPERS.md decisions)', () => {
+    expect(DEFAULT_MIN_ITERATIONS).toBe(50);
   });
 
   it.each([
