@@ -49,6 +49,10 @@ export interface RunMonitorEvents {
   records: (added: number) => void;
   /** A scheduled evaluation produced a diagnosis. */
   diagnosis: (diagnosis: RunDiagnosis) => void;
+  /** Live only: the followed log went quiet with records not yet judged; this is how they would be
+   * judged now. For views. It advances nothing, and the gate does not act on it (only scheduled
+   * evaluations decide, so the same bytes give the same decisions however they arrive). */
+  preview: (diagnosis: RunDiagnosis) => void;
   /** A series or the run changed state (also in diagnosis.timeline). */
   'state-change': (change: StateChange) => void;
   /** Something happened to the source (waiting, truncated, replaced, warning, progress, end). */

@@ -24,6 +24,9 @@ import type { MonitorPace, RunMonitor, RunMonitorEvents, RunMonitorOptions } fro
 export const DETECTION_LINES = 200;
 /** When following a log that has fewer lines than DETECTION_LINES, choose after this quiet time. */
 const DETECTION_QUIET_MS = 400;
+/** When a followed log goes quiet with records not yet judged (between evaluation points), judge
+ * them this long after the last line, so a view never shows a stale verdict for a stopped run. */
+const QUIET_JUDGE_MS = 250;
 
 export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
   // Spec files are loaded up front so a broken spec is reported before any reading starts.
@@ -42,6 +45,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
   let pending: string[] = [];
   let restartBeforeParser = false;
   let detectionTimer: NodeJS.Timeout | undefined;
+  let quietTimer: NodeJS.Timeout | undefined;
   let latest: RunDiagnosis | undefined;
   /** Bumped on every record (and crash line): what a cached diagnosis is keyed by. */
   let revision = 0;
@@ -100,6 +104,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     const lines = pending;
     pending = [];
     feed(lines);
+    judgeWhenQuiet();
   }
 
   /** Early choice on a quiet live log: a log that so far holds only a banner is not an error yet;
@@ -119,11 +124,24 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     if (addedInBatch > 0) events.emit('records', addedInBatch);
   }
 
+  /** Live only: a diagnosis of the records since the last evaluation point, without advancing the
+   * judge (confirmation counts and timeline move only at evaluation points, so verdicts stay the
+   * same for the same bytes however they arrive). */
+  function judgeWhenQuiet(): void {
+    if (!options.follow || !analyse) return;
+    if (quietTimer !== undefined) clearTimeout(quietTimer);
+    quietTimer = setTimeout(() => {
+      quietTimer = undefined;
+      if (changedSinceEvaluation && finished === undefined) guarded(() => events.emit('preview', peek()));
+    }, QUIET_JUDGE_MS);
+  }
+
   function onLines(lines: readonly string[]): void {
     pace.addLines(lines.length);
     if (parser !== undefined) {
       feed(lines);
       pace.setRecords(store.records);
+      judgeWhenQuiet();
       return;
     }
     for (const line of lines) pending.push(line);
@@ -190,6 +208,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
         onEvent: (event) => guarded(() => onEvent(event)),
       });
       if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+      if (quietTimer !== undefined) clearTimeout(quietTimer);
       if (failure !== undefined) throw failure;
       finished = finalDiagnosis();
       events.emit('end', finished);

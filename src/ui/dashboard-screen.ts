@@ -187,6 +187,10 @@ export async function openDashboard(options: DashboardOptions): Promise<Dashboar
         state.diagnosis = diagnosis;
         bump();
       }),
+      monitor.on('preview', (diagnosis) => {
+        state.diagnosis = diagnosis;
+        bump();
+      }),
       monitor.on('end', (diagnosis) => {
         state.diagnosis = diagnosis;
         bump();

@@ -107,6 +107,24 @@ describe('run monitor', () => {
     expect(essence(await done)).toEqual(atOnce);
   });
 
+  it('judges the records after the last evaluation point once a followed log goes quiet, without advancing the judge', async () => {
+    const quiet = join(dir, 'quiet.log');
+    // 25 iterations: evaluation points fall every 10 records early on, so 5 records are left over.
+    writeFileSync(quiet, text.split(/(?<=\n)/).slice(0, 25).join(''));
+    const monitor = createRunMonitor({ ...baseOptions([quiet]), follow: true, pollMs: 50 });
+    const scheduled: number[] = [];
+    const previews: number[] = [];
+    monitor.on('diagnosis', (d) => scheduled.push(d.records));
+    monitor.on('preview', (d) => previews.push(d.records));
+    const done = monitor.run();
+    const deadline = Date.now() + 5_000;
+    while (previews.length === 0 && Date.now() < deadline) await new Promise((resolve) => setTimeout(resolve, 25));
+    await monitor.stop();
+    await done;
+    expect(scheduled).toEqual([10, 20, 25]); // the last one is the final evaluation at stop()
+    expect(previews).toEqual([25]);
+  });
+
   it('says which input cannot be read', async () => {
     const monitor = createRunMonitor(baseOptions([join(dir, 'missing.log')]));
     await expect(monitor.run()).rejects.toThrow(/missing\.log/);
