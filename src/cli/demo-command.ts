@@ -142,7 +142,7 @@ export function registerDemoCommand(program: Command): void {
     .addOption(new Option('--scenario <name>', `what the run does: ${SCENARIO_NAMES.map((n) => `${n} (${SCENARIOS[n].expected})`).join(', ')}`)
       .default('healthy'))
     .option('--ra <number>', 'Rayleigh number', String(DEMO_DEFAULTS.rayleigh))
-    .option('--grid <cells>', `cells per side of the uniform grid (default ${DEMO_DEFAULTS.cells}; with --study, the coarse grid: default 16, 32 above Ra 1e4)`)
+    .option('--grid <cells>', `cells per side of the uniform grid (default ${DEMO_DEFAULTS.cells}; with --study, the coarse grid: default 16, 24 above Ra 1e4)`)
     .option('--no-ui', 'run the solver to the end and print the check result instead of the dashboard')
     .option('--out <path>', 'keep the log in this new file (never overwrites) instead of a temporary one; with --study, a new folder for the three logs')
     .addOption(new Option('--format <format>', 'log format the solver writes').choices([...LOG_FORMATS]).default('kv'))
