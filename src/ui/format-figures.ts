@@ -85,6 +85,15 @@ export function fit(text: string, width: number, pad = false): string {
   return pad ? text + ' '.repeat(width - chars.length) : text;
 }
 
+/** Fit a path in `width` characters, keeping its end (the file name tells runs apart) and cutting
+ * the start with `…`. */
+export function fitPath(text: string, width: number, pad = false): string {
+  const chars = Array.from(text);
+  if (width <= 0) return '';
+  if (chars.length <= width) return fit(text, width, pad);
+  return width === 1 ? '…' : `…${chars.slice(chars.length - (width - 1)).join('')}`;
+}
+
 /** Right-align `text` in `width` characters (cut with `…` when too long). */
 export function fitRight(text: string, width: number): string {
   const cut = fit(text, width);

@@ -11,7 +11,7 @@ import { QUANTITY_LABEL_WIDTH, RESIDUAL_LABEL_WIDTH } from './build-view-model.j
 import { bannerStyle, seriesStyle, stateStyle } from './series-styles.js';
 import type { Segment, StyledLine, TextStyle } from './styled-text.js';
 import { fitLine } from './styled-text.js';
-import { fit, fitRight } from './format-figures.js';
+import { fit, fitPath, fitRight } from './format-figures.js';
 import { KEY_HELP } from './view-state.js';
 
 export interface PaintedPanel {
@@ -178,7 +178,7 @@ function paintOverview(model: OverviewModel): Partial<Record<PanelName, PaintedP
   for (const row of model.rows.slice(first, first + visible)) {
     const line = fitLine([
       { text: row.cursor ? '> ' : '  ', style: { bold: true } },
-      { text: fit(row.label, labelWidth, true) },
+      { text: fitPath(row.label, labelWidth, true) },
       { text: ' ' },
       { text: fit(row.verdict ?? 'waiting', verdictWidth, true), style: stateStyle(row.verdict) },
       { text: ` ${fitRight(row.iteration, iterationWidth)} ${fit(row.worstResidual, residualWidth, true)} ` },

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fit, fitRight, formatAge, formatCount, formatCountShort, formatDuration, formatResidual, formatValue } from '../../src/ui/format-figures.js';
+import { fit, fitPath, fitRight, formatAge, formatCount, formatCountShort, formatDuration, formatResidual, formatValue } from '../../src/ui/format-figures.js';
 
 // Expected strings follow from the rules stated in each function's doc comment (our own format).
 describe('formatValue', () => {
@@ -60,5 +60,15 @@ describe('fit and fitRight', () => {
     expect(fit('res', 0)).toBe('');
     expect(fitRight('42', 5)).toBe('   42');
     expect(fitRight('123456', 4)).toBe('123…');
+  });
+});
+
+describe('fitPath', () => {
+  it('keeps the end of a long path, where the file name tells runs apart', () => {
+    expect(fitPath('sample-logs/cavity-diverging.kv.log', 16)).toBe('…iverging.kv.log');
+    expect(fitPath('sample-logs/cavity-diverging.kv.log', 16)).toHaveLength(16);
+    expect(fitPath('run.log', 10, true)).toBe('run.log   ');
+    expect(fitPath('run.log', 1)).toBe('…');
+    expect(fitPath('run.log', 0)).toBe('');
   });
 });
