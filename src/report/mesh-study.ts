@@ -156,7 +156,8 @@ function iterationVerdictOf(grids: readonly MeshStudyGrid[], discretisationError
   const missing = grids.length - known.length;
   const tail = missing > 0 ? ` (${missing} run${missing === 1 ? '' : 's'} gave no iteration error)` : '';
   if (ratio <= NEGLIGIBLE_RATIO) {
-    return `iteration error negligible: at most ${(ratio * 100).toPrecision(2)} % of the discretisation error (common practice asks for two to three orders of magnitude smaller)${tail}`;
+    const share = ratio * 100 < 0.01 ? 'below 0.01 %' : `at most ${(ratio * 100).toPrecision(2)} %`;
+    return `iteration error negligible: ${share} of the discretisation error (common practice asks for two to three orders of magnitude smaller)${tail}`;
   }
   if (ratio < 1) {
     return `iteration error NOT negligible: the ${worst.role} run's is ${(ratio * 100).toPrecision(2)} % of the discretisation error (common practice asks for two to three orders of magnitude smaller); converge the runs further before trusting the index${tail}`;
