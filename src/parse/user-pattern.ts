@@ -145,13 +145,14 @@ export class UserPattern {
 
   exec(line: string): RegExpExecArray | null {
     if (!this.mayMatch(line)) return null;
-    this.regex.lastIndex = 0;
+    // Only a global pattern reads lastIndex; leaving it alone keeps V8 on its fastest exec path.
+    if (this.regex.global) this.regex.lastIndex = 0;
     return this.regex.exec(capLine(line));
   }
 
   test(line: string): boolean {
     if (!this.mayMatch(line)) return false;
-    this.regex.lastIndex = 0;
+    if (this.regex.global) this.regex.lastIndex = 0;
     return this.regex.test(capLine(line));
   }
 }

@@ -4,7 +4,8 @@
  * without bound, capture groups named in the spec exist in the pattern, a rule yields something.
  * Returns every problem as `path.to.field: message` (empty when the spec is valid).
  */
-import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
+import { createRequire } from 'node:module';
+import type { ErrorObject, ValidateFunction } from 'ajv';
 import { COUNTER_NAMES, type LineRule, type ParserSpec } from './parser-spec.js';
 import { groupNames, patternProblems } from './user-pattern.js';
 
@@ -12,7 +13,8 @@ let validator: ValidateFunction | undefined;
 
 function schemaValidator(schema: object): ValidateFunction {
   if (validator === undefined) {
-    const Ajv = AjvModule.default;
+    // Loaded on first use (ajv takes a tenth of a second to load): built-in specs need no check.
+    const Ajv = (createRequire(import.meta.url)('ajv') as typeof import('ajv')).default;
     validator = new Ajv({ allErrors: true, strict: false }).compile(schema);
   }
   return validator;

@@ -77,6 +77,14 @@ describe('LineSplitter', () => {
     expect(warnings).toEqual([{ kind: 'line-cut', maxLineBytes: 10 }]);
   });
 
+  it('pure-ASCII chunk (decoded once, then cut): CRLF, empty lines, an over-limit line and a carry, in one push', () => {
+    const splitter = new LineSplitter({ maxLineBytes: 8 });
+    const lines = splitter.push(Buffer.from('a=1\r\n\n\r\nlonger than eight\r\nb=2\npart', 'latin1'));
+    expect(lines).toEqual(['a=1', '', '', 'longer t', 'b=2']);
+    expect(splitter.push(Buffer.from('ial\r\nz\n', 'latin1'))).toEqual(['partial', 'z']);
+    expect(splitter.end()).toEqual([]);
+  });
+
   it('does not cut a line of exactly the limit, with or without CR', () => {
     expect(whole(`${'y'.repeat(10)}\r\n${'z'.repeat(10)}\n`, 10)).toEqual({ lines: ['y'.repeat(10), 'z'.repeat(10)], warnings: [] });
   });

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync, readdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import AjvModule from 'ajv';
+import { validateParserSpec } from '../../src/parse/validate-parser-spec.js';
 
 const parsers = resolve('parsers');
 const schema = JSON.parse(readFileSync(join(parsers, 'parser-spec.schema.json'), 'utf8')) as Record<string, unknown>;
@@ -24,5 +25,17 @@ describe('parsers/parser-spec.schema.json', () => {
       expect(validate(spec), `${file}: ${JSON.stringify(validate.errors)}`).toBe(true);
       expect(`${spec.id as string}.json`).toBe(file);
     }
+  });
+
+  it('every built-in spec passes the full check loadParserSpecs gives user specs (schema and semantic rules), since start-up does not re-check them', () => {
+    const files = readdirSync(parsers).filter((f) => f.endsWith('.json') && f !== 'parser-spec.schema.json');
+    for (const file of files) {
+      const spec = JSON.parse(readFileSync(join(parsers, file), 'utf8')) as unknown;
+      expect(validateParserSpec(spec, schema), file).toEqual([]);
+    }
+    // The check can fail: a built-in with a broken pattern is reported.
+    const broken = JSON.parse(readFileSync(join(parsers, 'settle-block.json'), 'utf8')) as { lines: { rules: { match: string }[] } };
+    broken.lines.rules[0].match = '^=== iteration (?<iteration>[0-9]+ ===';
+    expect(validateParserSpec(broken, schema).join('\n')).toMatch(/lines\.rules\[0\]\.match/);
   });
 });
