@@ -9,7 +9,7 @@
  *   why:    res_p down 3.1 decades from its peak
  *
  *   series   kind      state       last      figures
- *   res_p    residual  converged   9.1e-4    3.1 decades down, 2.4 decades/1000 it, rho 0.9945
+ *   res_p    residual  converged   9.1e-4    3.1 decades down, falling 2.4 decades/1000 it, rho 0.9945
  *   nu_hot   quantity  converged   2.243     mean 2.243 ± 0.0011
  */
 import { EXIT_CODES, type RunDiagnosis, type SeriesDiagnosis } from '../analysis/diagnosis.js';
@@ -20,7 +20,10 @@ import { worstVerdict } from './worst-verdict.js';
 export function seriesFigures(series: SeriesDiagnosis): string {
   const parts: string[] = [];
   if (series.dropDecades !== undefined) parts.push(`${formatNumber(series.dropDecades, 2)} decades down`);
-  if (series.ordersPerKilo !== undefined) parts.push(`${formatNumber(series.ordersPerKilo, 2)} decades/1000 it`);
+  if (series.ordersPerKilo !== undefined) {
+    const rate = series.ordersPerKilo;
+    parts.push(rate === 0 ? 'flat' : `${rate > 0 ? 'falling' : 'rising'} ${formatNumber(Math.abs(rate), 2)} decades/1000 it`);
+  }
   if (series.rho !== undefined) parts.push(`rho ${formatNumber(series.rho, 6)}`);
   if (series.eta !== undefined && series.eta > 0) parts.push(Number.isFinite(series.eta) ? `about ${Math.round(series.eta)} it to target` : 'target out of reach at this rate');
   if (series.period !== undefined) parts.push(`period ${formatNumber(series.period, 3)} it`);

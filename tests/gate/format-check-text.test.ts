@@ -18,7 +18,7 @@ describe('check text', () => {
     expect(lines[2]).toBe('  why:    res_p down 3.2 decades from its peak');
     expect(lines[3]).toBe('          cd settled at 0.3312 ± 0.0004');
     expect(lines[5]).toMatch(/^ {2}series +kind +state +last +figures$/);
-    expect(lines[6]).toMatch(/^ {2}res_p +residual +converged +9\.100e-4 +3\.2 decades down, 2\.4 decades\/1000 it, rho 0\.99449$/);
+    expect(lines[6]).toMatch(/^ {2}res_p +residual +converged +9\.100e-4 +3\.2 decades down, falling 2\.4 decades\/1000 it, rho 0\.99449$/);
     expect(lines[7]).toMatch(/^ {2}cd +quantity +converged +0\.3312 +mean 0\.33118 ± 4\.1e-4$/);
   });
 
@@ -28,6 +28,8 @@ describe('check text', () => {
     expect(seriesFigures(makeSeries({ name: 'r', eta: 2290.4 }))).toBe('about 2290 it to target');
     expect(seriesFigures(makeSeries({ name: 'q', kind: 'quantity', mean: 2.243, iterationError: 3.1e-6 }))).toBe('mean 2.243, iteration error 3.1e-6');
     expect(seriesFigures(makeSeries({ name: 'r' }))).toBe('');
+    expect(seriesFigures(makeSeries({ name: 'r', ordersPerKilo: -46 }))).toBe('rising 46 decades/1000 it');
+    expect(seriesFigures(makeSeries({ name: 'r', ordersPerKilo: 0 }))).toBe('flat');
     expect(seriesFigures(makeSeries({ name: 'r', eta: 0 }))).toBe('');
     expect(seriesFigures(makeSeries({ name: 'r', eta: Infinity }))).toBe('target out of reach at this rate');
   });
