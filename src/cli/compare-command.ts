@@ -15,9 +15,8 @@ import { UsageError } from '../errors.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import type { MeshStudy } from '../report/mesh-study.js';
 import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
-import { postMortemMonitor } from './read-run.js';
+import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
-import { checkReportLogs } from './report-command.js';
 
 export interface RunCompareOptions {
   readonly logs: readonly string[];
@@ -48,7 +47,7 @@ export async function runCompare(options: RunCompareOptions): Promise<MeshStudy>
     throw new UsageError(`compare takes three logs (fine, medium, coarse), got ${options.logs.length}`, 'for example settle compare fine.log medium.log coarse.log --quantity nu_hot --cells 64000,8000,1000');
   }
   if (options.logs.includes('-')) throw new UsageError('compare reads three log files; standard input (-) is not one of them', 'save each run\'s log to a file first');
-  checkReportLogs(options.logs);
+  checkLogsReadable(options.logs);
   const { meshStudy } = await import('../report/mesh-study.js');
   const diagnoses: RunDiagnosis[] = [];
   for (const log of options.logs) {

@@ -12,12 +12,12 @@ import { realpathSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, extname, resolve } from 'node:path';
 import { Option, type Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
-import { InputError, UsageError } from '../errors.js';
+import { UsageError } from '../errors.js';
 import type { KindOverrides } from '../parse/record-parser.js';
 import { REPORT_FORMATS, type ReportFormat, type ReportRun } from '../report/report-input.js';
 import type { ProgressStream } from '../report/progress-bar.js';
 import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
-import { postMortemMonitor } from './read-run.js';
+import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
 export interface RunReportOptions {
@@ -49,21 +49,6 @@ export function reportFormatOf(format: string | undefined, output: string | unde
   if (extension === '.html' || extension === '.htm') return 'html';
   if (extension === '.json') return 'json';
   return 'text';
-}
-
-/** Refuse, before reading anything, logs that cannot be read and a doubled standard input. */
-export function checkReportLogs(logs: readonly string[]): void {
-  if (logs.filter((log) => log === '-').length > 1) throw new UsageError('standard input (-) can be read only once', 'name - at most once');
-  for (const log of logs) {
-    if (log === '-') continue;
-    let isFile: boolean;
-    try {
-      isFile = statSync(log).isFile();
-    } catch {
-      throw new InputError(`cannot read ${log}: no such file`, 'check the path');
-    }
-    if (!isFile) throw new InputError(`cannot read ${log}: not a file`, 'name the log file itself, not its folder');
-  }
 }
 
 function sameFile(a: string, b: string): boolean {
@@ -103,7 +88,7 @@ export function checkReportOutput(output: string, logs: readonly string[]): void
 
 /** Read each log to its end, judge it, and write the report. */
 export async function runReport(options: RunReportOptions): Promise<void> {
-  checkReportLogs(options.logs);
+  checkLogsReadable(options.logs);
   if (options.output !== undefined) checkReportOutput(options.output, options.logs);
   const { createProgressBar } = await import('../report/progress-bar.js');
   const runs: ReportRun[] = [];
