@@ -12,8 +12,7 @@ import { constants as osConstants } from 'node:os';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import { EXIT_CODES, type RunDiagnosis } from '../analysis/diagnosis.js';
-import type { KindOverrides } from '../parse/record-parser.js';
-import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { DEFAULT_MIN_ITERATIONS, readGateFlags, type GateSettings, type RawGateFlags } from '../gate/read-gate-flags.js';
@@ -22,15 +21,11 @@ import { checkJson } from '../gate/check-json.js';
 import { formatCheckText } from '../gate/format-check-text.js';
 import { worstVerdict } from '../gate/worst-verdict.js';
 
-export interface RunCheckOptions {
+export interface RunCheckOptions extends RunReading {
   logs: string[];
   json: boolean;
   criteria: Criteria;
-  readonly parserFiles: readonly string[];
-  parserId?: string;
-  kindOverrides: KindOverrides;
   stdout: NodeJS.WritableStream;
-  pollMs?: number;
 }
 
 /** Post-mortem check of each log in turn; prints the text block or the JSON document and returns

@@ -12,13 +12,12 @@ import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import type { RunDiagnosis } from '../analysis/diagnosis.js';
 import { UsageError } from '../errors.js';
-import type { KindOverrides } from '../parse/record-parser.js';
 import type { MeshStudy } from '../report/mesh-study.js';
-import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
-export interface RunCompareOptions {
+export interface RunCompareOptions extends RunReading {
   readonly logs: readonly string[];
   readonly quantity: string;
   readonly cells: readonly number[];
@@ -26,10 +25,6 @@ export interface RunCompareOptions {
   readonly allowUnsettled: boolean;
   readonly json: boolean;
   readonly criteria: Criteria;
-  readonly parserFiles: readonly string[];
-  readonly parserId?: string;
-  readonly kindOverrides: KindOverrides;
-  readonly pollMs?: number;
   readonly stdout: NodeJS.WritableStream;
 }
 

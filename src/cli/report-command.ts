@@ -13,23 +13,18 @@ import { dirname, extname, resolve } from 'node:path';
 import { Option, type Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import { UsageError } from '../errors.js';
-import type { KindOverrides } from '../parse/record-parser.js';
 import { REPORT_FORMATS, type ReportFormat, type ReportRun } from '../report/report-input.js';
 import type { ProgressStream } from '../report/progress-bar.js';
-import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
-export interface RunReportOptions {
+export interface RunReportOptions extends RunReading {
   readonly logs: readonly string[];
   readonly format: ReportFormat;
   /** Write here instead of stdout. */
   readonly output?: string;
   readonly criteria: Criteria;
-  readonly parserFiles: readonly string[];
-  readonly parserId?: string;
-  readonly kindOverrides: KindOverrides;
-  readonly pollMs?: number;
   readonly stdout: NodeJS.WritableStream;
   /** Where the progress bar goes (drawn only when it is a terminal). */
   readonly stderr: ProgressStream;
