@@ -3,7 +3,9 @@
  * still converging, oscillating (steady runs), failed or undecided.
  *
  * Method, on the samples after start-up (at most the newest 16 384, so the cost stays bounded):
- * 0. Transient runs: a quantity cycling over physical time is judged by the stability of its cycle
+ * 0. A quantity whose magnitude grew by 3 decades or more above the level it held is `diverging`
+ *    (quantity-blow-up.ts); start-up and exact zeros do not set that level.
+ * 0b. Transient runs: a quantity cycling over physical time is judged by the stability of its cycle
  *    (judgePeriodicTransient below, cycle-stability.ts); the rest applies when it does not cycle.
  * 1. MSER-5 truncation (mser-truncation.ts) removes the initial transient; a minimum in the second
  *    half means no steady part yet.
@@ -34,6 +36,7 @@ import { geometricIterationError } from './geometric-iteration-error.js';
 import { detectOscillation } from './detect-oscillation.js';
 import { remainingChange } from './remaining-change.js';
 import { cycleStability, refinePeriod } from './cycle-stability.js';
+import { quantityBlowUp } from './quantity-blow-up.js';
 import { formatCount, formatEstimate, formatMeanInterval, formatPercent, formatResidual, formatValue } from './format-figures.js';
 
 export const QUANTITY_SPAN = 16384;
@@ -109,6 +112,12 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number): SeriesDiag
     return with_('failed', `${info.name} became ${formatResidual(samples.nonFiniteValue)} at it ${formatCount(samples.firstNonFinite)}`);
   }
   const n = samples.values.length;
+  const blowUp = quantityBlowUp(samples.values, samples.iterations, Math.max(0, n - QUANTITY_SPAN), n);
+  if (blowUp !== null) {
+    const span = blowUp.toIteration - blowUp.fromIteration;
+    return with_('diverging', `${info.name} grew from ${formatValue(blowUp.fromValue)} to ${formatValue(blowUp.toValue)} in ${formatCount(span)} iterations, `
+      + `${Math.floor(blowUp.decades)} decades above its level of ${formatValue(blowUp.scale)}`);
+  }
   if (n < QUANTITY_MIN_SAMPLES) {
     return with_('undecided', n === 0
       ? `start-up: not judged before it ${formatCount(samples.judgedFromIteration)}`

@@ -13,7 +13,10 @@
  * Conditions (validity of the geometric tail, ours to enforce): the window is monotone (no reversal
  * of sign among the non-zero successive differences), and the block changes do not grow
  * (|c3| ≤ |c2| ≤ |c1|); Λ is taken as the larger of c2/c1 and c3/c2 (the more cautious one) and must
- * be below 1. A last block with no change at all (the digits stopped moving) has no tail.
+ * be below 1, and stay below 1 when each change is allowed one print unit of rounding (the
+ * resolution below): block changes of a few print units each (2, 2, 2) give a ratio of about 1 that
+ * is only rounding and would extrapolate an enormous tail, so the decay counts as not shown at that
+ * window. A last block with no change at all (the digits stopped moving) has no tail.
  * When the blocks of one window do not decay (a slow approach printed with few digits moves a few
  * print units per block and can look linear), windows of 2, 4, … 16 times the length are tried while
  * the judged history covers them and stays monotone; the first that decays gives the tail.
@@ -103,6 +106,10 @@ function blockTail(values: ArrayLike<number>, start: number, to: number): { erro
   const c3 = Math.abs(last - values[b2]);
   if (c3 > c2 || c2 > c1) return null;
   if (c3 === 0) return { error: 0, ratio: 0, resolution };
+  // Each block change carries up to one print unit of rounding (half a unit at either end): the decay
+  // is resolved only when it stays below 1 with that allowance. Changes of a few print units each
+  // (2, 2, 2 units: a ratio of "1" that is only rounding) say nothing about it: a longer window will.
+  if (!((c3 + resolution) / (c2 - resolution) < 1) || !((c2 + resolution) / (c1 - resolution) < 1) || !(c2 > resolution)) return null;
   const ratio = Math.max(c2 / c1, c3 / c2);
   if (!(ratio < 1)) return null;
   return { error: (sign * c3 * ratio) / (1 - ratio), ratio, resolution };

@@ -37,6 +37,19 @@ describe('remainingChange', () => {
     expect(r.windowChange).toBe(0);
   });
 
+  it('printed with 7 digits, the last window moving 2 print units per block: no enormous tail from rounding (exact series: Ferziger & Perić 2002 §5.7; tolerance 2 print units)', () => {
+    // Geometric approach with factor 0.986 per iteration, printed with 7 significant digits as the
+    // demo log writer does: over the last 200 iterations it moves 6 print units (2 per block), so the
+    // block ratio read from one window is 1 up to rounding. The longer window resolves the decay.
+    const limit = 3.2541756;
+    const values = Float64Array.from({ length: 1150 }, (_, k) => printed(limit + 1e-4 * 0.986 ** (k - 750), 7));
+    const r = remainingChange(values, iterationsOf(1150), 20, 1150, 200)!;
+    expect(r).not.toBeNull();
+    expect(Math.abs(r.limit - limit)).toBeLessThanOrEqual(2e-6);
+    expect(Math.abs(r.error)).toBeLessThanOrEqual(2e-6);
+    expect(Math.abs(r.windowChange)).toBeLessThan(1e-5);
+  });
+
   it.each([
     ['a linear drift (no decay: the tail is unbounded)', (k: number) => 1 + 1e-6 * k],
     ['a reversal (noise: not monotone)', (k: number) => 1 + 1e-6 * (k % 2)],
