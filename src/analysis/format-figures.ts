@@ -1,6 +1,7 @@
 /**
  * Plain-words number formatting for reasons, advice and timeline texts (one style everywhere):
- * counts with a space every three digits ("2 300"), residuals in short scientific form ("2.1e-4"),
+ * counts with a space every three digits ("2 300"), residuals in short scientific form ("2.1e-4";
+ * plain between 0.001 and 10 000: "1.6"),
  * a mean with its half-width rounded to the half-width's first significant digit ("0.3312 ± 0.0004").
  */
 
@@ -20,11 +21,15 @@ export function formatEstimate(value: number): string {
   return formatCount(Math.round(value / magnitude) * magnitude);
 }
 
-/** Short scientific form: 0.000213 → "2.1e-4"; non-finite values by name. */
+/** Two significant figures: short scientific form for small and large values (0.000213 → "2.1e-4",
+ * 52 300 → "5.2e4"), plain between 0.001 and 10 000 (1.63 → "1.6", 0.0213 → "0.021", 870 → "870");
+ * non-finite values by name. */
 export function formatResidual(value: number): string {
   if (Number.isNaN(value)) return 'NaN';
   if (!Number.isFinite(value)) return value > 0 ? 'Infinity' : '-Infinity';
   if (value === 0) return '0';
+  const rounded = Number(value.toPrecision(2));
+  if (Math.abs(rounded) >= 1e-3 && Math.abs(rounded) < 1e4) return String(rounded);
   const [mantissa, exponent] = value.toExponential(1).split('e');
   return `${mantissa}e${Number(exponent)}`;
 }
