@@ -22,15 +22,22 @@ export function niceTicks(min: number, max: number, count: number): number[] {
   return ticks;
 }
 
-/** Whole decades (exponents) from `minExponent` to `maxExponent`, thinned to at most `maxCount`
- * labels by taking every k-th decade counted down from the top. */
-export function decadeTicks(minExponent: number, maxExponent: number, maxCount: number): number[] {
+/** Decade steps a residual axis may use: 1, 2, 3 or 5 decades, then 10, 20, 50 times a power of ten. */
+function decadeStep(minStep: number): number {
+  for (const step of [1, 2, 3, 5]) if (step >= minStep) return step;
+  for (let power = 10; ; power *= 10) for (const factor of [1, 2, 5]) if (factor * power >= minStep) return factor * power;
+}
+
+/** Whole decades (exponents) from `minExponent` to `maxExponent`, every `step`-th one, where `step` is
+ * the smallest of 1, 2, 3, 5, 10, 20, 50, 100... decades that is at least `minStep`. The ticks are the
+ * multiples of the step, so they sit evenly (1e0, 1e-3, 1e-6) and stay put as the range grows.
+ * Cost O(number of ticks). */
+export function decadeTicks(minExponent: number, maxExponent: number, minStep: number): number[] {
   const low = Math.ceil(minExponent);
   const high = Math.floor(maxExponent);
-  if (!(high >= low) || maxCount < 1) return [];
-  const span = high - low;
-  const step = Math.max(1, Math.ceil((span + 1) / maxCount));
+  if (!(high >= low) || !Number.isFinite(minStep)) return [];
+  const step = decadeStep(Math.max(1, minStep));
   const ticks: number[] = [];
-  for (let e = high; e >= low; e -= step) ticks.push(e);
-  return ticks.reverse();
+  for (let k = Math.ceil(low / step); k * step <= high; k++) ticks.push(k * step + 0);
+  return ticks;
 }

@@ -12,7 +12,7 @@
 import type { ChartModel } from './dashboard-model.js';
 import { seriesStyle } from './series-styles.js';
 import type { Segment, StyledLine, TextStyle } from './styled-text.js';
-import { fitLine } from './styled-text.js';
+import { fitLine, lineWidth } from './styled-text.js';
 import { fit, fitRight } from './format-figures.js';
 
 export interface ChartGeometry {
@@ -46,18 +46,26 @@ export function paintChart(chart: ChartModel, width: number, height: number, lab
   const lines: StyledLine[] = [];
   if (height <= 0 || width <= 0) return lines;
 
-  // Legend.
-  const legend: Segment[] = [];
-  for (const entry of chart.legend) {
-    const style = seriesStyle(entry.style);
-    legend.push({ text: `${style.marker} ${entry.name}`, style: { fg: style.colour } }, { text: '  ' });
-  }
-  for (const level of chart.levels) {
-    if (level.kind === 'band') continue;
-    legend.push({ text: level.kind === 'target' ? `·· ${level.label}` : `── ${level.label}`, style: LEVEL_STYLES[level.kind] }, { text: '  ' });
-  }
-  if ((chart.restarts?.length ?? 0) > 0) legend.push({ text: '┊ restart', style: LEVEL_STYLES.band }, { text: '  ' });
-  if (chart.hiddenCount > 0) legend.push({ text: `(${chart.hiddenCount} hidden)`, style: AXIS_STYLE });
+  // Legend: names, then reference levels and notes; when that is too wide, one space between
+  // entries and levels by their value alone (`·· 1e-3` for `·· target 1e-3`).
+  const legendOf = (compact: boolean): Segment[] => {
+    const gap: Segment = { text: compact ? ' ' : '  ' };
+    const legend: Segment[] = [];
+    for (const entry of chart.legend) {
+      const style = seriesStyle(entry.style);
+      legend.push({ text: `${style.marker} ${entry.name}`, style: { fg: style.colour } }, gap);
+    }
+    for (const level of chart.levels) {
+      if (level.kind === 'band') continue;
+      const label = compact ? level.label.replace(/^[a-z]+ /, '') : level.label;
+      legend.push({ text: level.kind === 'target' ? `·· ${label}` : `── ${label}`, style: LEVEL_STYLES[level.kind] }, gap);
+    }
+    if ((chart.restarts?.length ?? 0) > 0) legend.push({ text: '┊ restart', style: LEVEL_STYLES.band }, gap);
+    if (chart.hiddenCount > 0) legend.push({ text: `(${chart.hiddenCount} hidden)`, style: AXIS_STYLE });
+    return legend;
+  };
+  let legend = legendOf(false);
+  if (lineWidth(trimEnd(legend)) > width) legend = legendOf(true);
   lines.push(fitLine(legend, width));
   if (height === 1) return lines;
 
@@ -199,6 +207,13 @@ export function paintChart(chart: ChartModel, width: number, height: number, lab
   }
   while (lines.length < height) lines.push(fitLine(lines.length === height - 1 ? [{ text: axis.join(''), style: AXIS_STYLE }] : [], width));
   return lines;
+}
+
+/** `line` without its trailing gap segment. */
+function trimEnd(line: readonly Segment[]): Segment[] {
+  const out = [...line];
+  while (out.length > 0 && out[out.length - 1].text.trim() === '' && out[out.length - 1].style === undefined) out.pop();
+  return out;
 }
 
 /** Bresenham's line algorithm (Bresenham 1965, "Algorithm for computer control of a digital

@@ -46,15 +46,31 @@ export function worstResidual(snapshot: RunSnapshot): string {
   return worstName === '' ? '' : `${worstName} ${formatResidual(worstValue, 2)}`;
 }
 
+/** The folder every label lies in (`sample-logs/`, with its trailing slash), or '' when they share
+ * none or there is only one label. Only whole path parts count. O(total label length). */
+export function commonFolder(labels: readonly string[]): string {
+  if (labels.length < 2) return '';
+  let prefix = labels[0].slice(0, labels[0].lastIndexOf('/') + 1);
+  for (const label of labels) {
+    while (prefix !== '' && !label.startsWith(prefix)) {
+      const shorter = prefix.slice(0, prefix.lastIndexOf('/', prefix.length - 2) + 1);
+      prefix = shorter === prefix ? '' : shorter;
+    }
+  }
+  return prefix;
+}
+
 export function buildOverviewModel(runs: readonly RunSummary[], view: ViewState, size: TerminalSize, now: number): OverviewModel {
   const order = overviewOrder(runs);
   const cursor = cursorRun(view, { overviewOrder: order });
+  // Rows name each run by its path inside the common folder; the title names the folder.
+  const folder = commonFolder(runs.map((run) => run.label));
   const rows: OverviewRow[] = order.map((runIndex) => {
     const run = runs[runIndex];
     const hasRecords = run.snapshot.records > 0;
     return {
       runIndex,
-      label: run.label,
+      label: run.label.slice(folder.length),
       verdict: hasRecords ? run.diagnosis.verdict : null,
       iteration: hasRecords ? formatCount(run.snapshot.lastIteration) : '',
       worstResidual: worstResidual(run.snapshot),
@@ -66,10 +82,13 @@ export function buildOverviewModel(runs: readonly RunSummary[], view: ViewState,
   const counts = new Map<string, number>();
   for (const row of rows) counts.set(row.verdict ?? 'waiting', (counts.get(row.verdict ?? 'waiting') ?? 0) + 1);
   const summary = [...counts].map(([verdict, count]) => `${count} ${verdict}`).join(', ');
+  // The longest title that fits: with the folder, without it, the verdict counts alone.
+  const titles = [`${runs.length} runs in ${folder}: ${summary}`, `${runs.length} runs: ${summary}`, summary].filter((_, i) => i > 0 || folder !== '');
+  const title = titles.find((text) => Array.from(text).length <= size.cols) ?? titles[titles.length - 1];
   return {
     kind: 'overview',
     layout: dashboardLayout(size.cols, size.rows),
-    title: `${runs.length} runs: ${summary}`,
+    title,
     rows,
     footer: '? keys  up/down choose  enter open  space pause  q quit',
     help: view.help,

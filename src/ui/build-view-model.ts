@@ -65,7 +65,7 @@ export function buildViewModel(
   now: number,
   context: RunContext,
 ): RunViewModel {
-  const layout = dashboardLayout(size.cols, size.rows);
+  const layout = dashboardLayout(size.cols, size.rows, snapshot.series.length);
   const bySeries = new Map<string, SeriesDiagnosis>(diagnosis.series.map((d) => [d.name, d]));
   const ordered = tableOrder(snapshot);
   const styleOf = styleNumbers(ordered);
@@ -229,7 +229,8 @@ function residualChart(
     ...base,
     yMin,
     yMax,
-    yTicks: decadeTicks(yMin, yMax, Math.max(2, Math.ceil(geometry.plotRows / 2) + 1)).map((e) => ({ at: e, label: formatDecade(e) })),
+    // Labels at least two rows apart: 8 braille dots (4 to a row) between neighbours, whatever the rounding.
+    yTicks: decadeTicks(yMin, yMax, (8 * (yMax - yMin)) / Math.max(1, 4 * geometry.plotRows - 1)).map((e) => ({ at: e, label: formatDecade(e) })),
     xTicks: xTicks(window, geometry.plotCols),
     lines,
     levels,
@@ -248,7 +249,8 @@ function quantityChart(
   const geometry = chartGeometry(width, height, QUANTITY_LABEL_WIDTH);
   const count = quantities.length;
   const column = count === 0 ? undefined : quantities[((view.quantityIndex % count) + count) % count];
-  const position = count > 1 ? ` (${(((view.quantityIndex % count) + count) % count) + 1} of ${count}, ] next)` : '';
+  // Which of several quantities this is; the keys that step through them are in the footer.
+  const position = count > 1 ? ` · ${(((view.quantityIndex % count) + count) % count) + 1} of ${count}` : '';
   const name = column === undefined ? '' : (column.info.label ?? column.info.name);
   const unit = column?.info.unit ? ` [${column.info.unit}]` : '';
   const base = {
@@ -328,8 +330,13 @@ function seriesRow(
     etaIterations,
     etaTime,
     settled,
-    reason: d?.reason ?? (column.info.kind === 'other' ? 'shown, not judged' : 'not judged yet'),
+    reason: d?.reason !== undefined ? withoutLeadingName(d.reason, column.info.name) : column.info.kind === 'other' ? 'shown, not judged' : 'not judged yet',
   };
+}
+
+/** A reason as the table shows it, beside its series' name: `res_p falling 2 orders…` → `falling 2 orders…`. */
+export function withoutLeadingName(reason: string, name: string): string {
+  return reason.startsWith(`${name} `) && reason.length > name.length + 1 ? reason.slice(name.length + 1) : reason;
 }
 
 /** The header alone (the clock moves it even when no data arrives). */

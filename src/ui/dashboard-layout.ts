@@ -36,7 +36,10 @@ export const MIN_ROWS = 18;
 /** From this width on, the table and the timeline sit side by side. */
 const WIDE_COLS = 140;
 
-export function dashboardLayout(cols: number, rows: number): DashboardLayout {
+/** The layout for a `cols` × `rows` terminal. `seriesCount`, when given, lets a stacked series table
+ * shrink to its rows (header and border included) and hands the rows it does not need to the
+ * timeline; the timeline always keeps its minimum. */
+export function dashboardLayout(cols: number, rows: number, seriesCount?: number): DashboardLayout {
   const width = Math.max(cols, 1);
   const height = Math.max(rows, 1);
   const header: Rect = { left: 0, top: 0, width, height: 1 };
@@ -60,14 +63,18 @@ export function dashboardLayout(cols: number, rows: number): DashboardLayout {
     table = { left: 0, top: lowerTop, width: tableWidth, height: lower };
     timeline = { left: tableWidth, top: lowerTop, width: width - tableWidth, height: lower };
   } else {
-    const timelineHeight = Math.min(lower, lower >= 14 ? 6 : 4);
+    const timelineMin = Math.min(lower, lower >= 14 ? 6 : 4);
+    // Border, column titles and at least two series rows, or every series when fewer.
+    const tableWanted = seriesCount === undefined ? lower - timelineMin : 3 + Math.max(2, seriesCount);
+    const timelineHeight = lower - Math.min(lower - timelineMin, tableWanted);
     table = { left: 0, top: lowerTop, width, height: lower - timelineHeight };
     timeline = { left: 0, top: lowerTop + lower - timelineHeight, width, height: timelineHeight };
   }
 
   const overview: Rect = { left: 0, top: 1, width, height: Math.max(0, height - 2) };
-  const helpWidth = Math.min(width, 64);
-  const helpHeight = Math.min(height, 16);
+  // Wide enough for the longest key and its action; tall enough for every key and the legend notes.
+  const helpWidth = Math.min(width, 76);
+  const helpHeight = Math.min(height, 18);
   const help: Rect = {
     left: Math.floor((width - helpWidth) / 2),
     top: Math.floor((height - helpHeight) / 2),

@@ -49,7 +49,7 @@ function paintRun(model: RunViewModel, colour: boolean): Partial<Record<PanelNam
     verdict: { rect: layout.verdict, lines: paintVerdict(model.verdict, layout.verdict.width) },
     residuals: { rect: layout.residuals, title: ' residuals, log scale ', lines: paintChart(model.residuals, r.width, r.height, RESIDUAL_LABEL_WIDTH, colour) },
     quantity: { rect: layout.quantity, title: ` ${model.quantity.title} `, lines: paintChart(model.quantity, q.width, q.height, QUANTITY_LABEL_WIDTH, colour) },
-    table: { rect: layout.table, title: ' series ', lines: paintTable(model.rows, t.width, t.height) },
+    table: { rect: layout.table, title: tableTitle(model.rows, t.height), lines: paintTable(model.rows, t.width, t.height) },
     timeline: { rect: layout.timeline, title: ' state changes, newest first ', lines: paintTimeline(model.timeline, l.width, l.height) },
     footer: { rect: layout.footer, lines: [fitLine([{ text: model.footer, style: { fg: 'gray' } }], layout.footer.width)] },
   };
@@ -57,24 +57,62 @@ function paintRun(model: RunViewModel, colour: boolean): Partial<Record<PanelNam
 
 export function paintHeader(header: HeaderModel, width: number): StyledLine {
   const sep: Segment = { text: width >= 120 ? '  ·  ' : ' · ', style: { fg: 'gray' } };
-  const right: Segment[] = [sep, { text: header.parser }, sep, { text: header.position, style: { bold: true } }, sep, { text: header.pace }, sep,
-    header.stale ? { text: `no growth: ${header.growth.replace(/^grew /, 'last grew ')}`, style: { fg: 'yellow', bold: true, inverse: true } } : { text: header.growth }];
-  if (header.span !== 'whole history') right.push(sep, { text: header.span });
-  if (header.paused) right.push(sep, { text: 'PAUSED', style: { inverse: true, bold: true } });
-  const rightWidth = right.reduce((sum, segment) => sum + Array.from(segment.text).length, 0);
-  // The file name gives way first, cut from the left (its end names the run).
-  const room = Math.max(12, width - rightWidth);
+  // Pieces right of the file name, each with a rank: when the line is too narrow, the highest rank
+  // goes first (the reading pace, then the parser), so position and growth always stay.
+  const pieces: { segment: Segment; rank: number }[] = [
+    { segment: { text: header.parser }, rank: 2 },
+    { segment: { text: header.position, style: { bold: true } }, rank: 0 },
+    { segment: { text: header.pace }, rank: 3 },
+    { segment: header.stale ? { text: `no growth: ${header.growth.replace(/^grew /, 'last grew ')}`, style: { fg: 'yellow', bold: true, inverse: true } } : { text: header.growth }, rank: 0 },
+  ];
+  if (header.span !== 'whole history') pieces.push({ segment: { text: header.span }, rank: 1 });
+  if (header.paused) pieces.push({ segment: { text: 'PAUSED', style: { inverse: true, bold: true } }, rank: 0 });
   const chars = Array.from(header.file);
-  const file = chars.length <= room ? header.file : `…${chars.slice(chars.length - room + 1).join('')}`;
+  const baseLength = Array.from(header.file.replace(/^.*\/(?=.)/, '')).length;
+  const rightOf = (kept: typeof pieces): Segment[] => kept.flatMap((piece) => [sep, piece.segment]);
+  const widthOf = (segments: readonly Segment[]): number => segments.reduce((sum, segment) => sum + Array.from(segment.text).length, 0);
+  let kept = pieces;
+  // Room wanted for the file: all of it, or `…/` and its base name, and at least 24 cells (a
+  // base name such as `run.log` needs its folder to name the run).
+  const wanted = Math.min(chars.length, Math.max(baseLength + 2, 24));
+  for (let rank = 3; rank >= 1 && widthOf(rightOf(kept)) + wanted > width; rank--) kept = kept.filter((piece) => piece.rank !== rank);
+  const right = rightOf(kept);
+  // The file name gives way next, cut from the left at a folder boundary when it can be (its end
+  // names the run: `…/case-17/run.log`).
+  const room = Math.max(12, width - widthOf(right));
+  let file = header.file;
+  if (chars.length > room) {
+    const tail = chars.slice(chars.length - room + 1).join('');
+    const slash = tail.indexOf('/');
+    file = slash >= 0 && slash < tail.length - 1 ? `…${tail.slice(slash)}` : `…${tail}`;
+  }
   return fitLine([{ text: file, style: { bold: true } }, ...right], width);
 }
 
 export function paintVerdict(verdict: VerdictModel, width: number): StyledLine[] {
   const headline: Segment = { text: ` ${verdict.headline} `, style: bannerStyle(verdict.state) };
+  // The advice is what to do: it may run on into the second line rather than be cut; the details
+  // (reasons, unmet criteria) take whatever room is left after it.
+  const room = Math.max(0, width - Array.from(headline.text).length - 2);
+  const [first, rest] = splitAtWord(verdict.advice, room);
+  const second: Segment[] = [];
+  if (rest !== '') second.push({ text: rest, style: { bold: true } });
+  if (verdict.details !== '') second.push({ text: rest !== '' ? ` — ${verdict.details}` : verdict.details });
   return [
-    fitLine([headline, { text: '  ' }, { text: verdict.advice, style: { bold: true } }], width),
-    fitLine([{ text: verdict.details }], width),
+    fitLine([headline, { text: '  ' }, { text: first, style: { bold: true } }], width),
+    fitLine(second, width),
   ];
+}
+
+/** `text` split into the longest head of whole words that fits `width` cells, and the rest. A first
+ * word longer than the width is cut (the rest starts after it). */
+export function splitAtWord(text: string, width: number): [string, string] {
+  const chars = Array.from(text);
+  if (chars.length <= width) return [text, ''];
+  const head = chars.slice(0, width + 1).join('');
+  const cut = head.lastIndexOf(' ');
+  if (cut <= 0) return [`${chars.slice(0, Math.max(0, width - 1)).join('')}…`, chars.slice(width - 1).join('').trimStart()];
+  return [head.slice(0, cut).trimEnd(), Array.from(text).slice(Array.from(head.slice(0, cut)).length).join('').trimStart()];
 }
 
 interface Column {
@@ -107,7 +145,9 @@ export function paintTable(rows: readonly SeriesRow[], width: number, height: nu
   }
   const spare = width - used;
   const why = spare >= WHY_MIN + 8;
-  const nameWidth = NAME_MIN + (why ? Math.min(8, spare - WHY_MIN) : Math.min(spare, 12));
+  // The name column grows to the longest name (within limits); the reasons get what is left.
+  const longest = rows.reduce((most, row) => Math.max(most, Array.from(row.name).length), 0);
+  const nameWidth = Math.max(NAME_MIN, Math.min(longest, NAME_MIN + (why ? Math.min(8, spare - WHY_MIN) : Math.min(spare, 12))));
   const whyWidth = why ? width - used - (nameWidth - NAME_MIN) - 1 : 0;
   const pad = (text: string, column: { width: number; align: 'left' | 'right' }): string =>
     column.align === 'right' ? fitRight(text, column.width) : fit(text, column.width, true);
@@ -117,10 +157,7 @@ export function paintTable(rows: readonly SeriesRow[], width: number, height: nu
   if (why) head.push({ text: ` ${fit('why', whyWidth, true)}` });
   const lines: StyledLine[] = [fitLine(head.map((s) => ({ text: s.text, style: { fg: 'gray', underline: true } as TextStyle })), width)];
 
-  // Scroll so the cursor row stays in view.
-  const visible = height - 1;
-  const cursor = Math.max(0, rows.findIndex((row) => row.cursor));
-  const first = Math.max(0, Math.min(cursor - visible + 1, rows.length - visible));
+  const { first, visible } = tableWindow(rows, height);
   for (const row of rows.slice(first, first + visible)) {
     const style = seriesStyle(row.style);
     const cells: Segment[] = [
@@ -139,6 +176,23 @@ export function paintTable(rows: readonly SeriesRow[], width: number, height: nu
   if (rows.length === 0) lines.push(fitLine([{ text: '  no series yet', style: { fg: 'gray' } }], width));
   while (lines.length < height) lines.push(fitLine([], width));
   return lines.slice(0, height);
+}
+
+/** Which rows a table of `height` lines (titles included) shows: scrolled so the cursor row stays
+ * in view. `above` and `below` count the rows out of view. */
+export function tableWindow(rows: readonly { readonly cursor: boolean }[], height: number): { first: number; visible: number; above: number; below: number } {
+  const visible = Math.max(0, height - 1);
+  const cursor = Math.max(0, rows.findIndex((row) => row.cursor));
+  const first = Math.max(0, Math.min(cursor - visible + 1, rows.length - visible));
+  return { first, visible, above: first, below: Math.max(0, rows.length - first - visible) };
+}
+
+/** The series panel's title, counting the series scrolled out of view. */
+export function tableTitle(rows: readonly { readonly cursor: boolean }[], height: number): string {
+  const { above, below } = tableWindow(rows, height);
+  if (above + below === 0) return ' series ';
+  const more = [above > 0 ? `${above} above` : '', below > 0 ? `${below} below` : ''].filter((text) => text !== '').join(', ');
+  return ` series (${rows.length}; ${more}: j k scroll) `;
 }
 
 export function paintTimeline(entries: readonly TimelineEntry[], width: number, height: number): StyledLine[] {
@@ -163,18 +217,17 @@ export function paintHelp(width: number, height: number): StyledLine[] {
 function paintOverview(model: OverviewModel): Partial<Record<PanelName, PaintedPanel>> {
   const { layout } = model;
   const { width, height } = inner(layout.overview);
-  const verdictWidth = 12;
-  const iterationWidth = 11;
-  const residualWidth = 18;
-  const growthWidth = 14;
+  // `oscillating`, `iteration`, `res_u_max 1.1e-4`, `12 min ago`: the run's name gets the rest.
+  const verdictWidth = 11;
+  const iterationWidth = 9;
+  const residualWidth = 16;
+  const growthWidth = 12;
   const labelWidth = Math.max(10, width - 2 - verdictWidth - iterationWidth - residualWidth - growthWidth - 4);
   const lines: StyledLine[] = [fitLine([{
     text: `  ${fit('run', labelWidth, true)} ${fit('verdict', verdictWidth, true)} ${fitRight('iteration', iterationWidth)} ${fit('worst residual', residualWidth, true)} ${fit('last growth', growthWidth, true)}`,
     style: { fg: 'gray', underline: true },
   }], width)];
-  const visible = height - 1;
-  const cursor = Math.max(0, model.rows.findIndex((row) => row.cursor));
-  const first = Math.max(0, Math.min(cursor - visible + 1, model.rows.length - visible));
+  const { first, visible, above, below } = tableWindow(model.rows, height);
   for (const row of model.rows.slice(first, first + visible)) {
     const line = fitLine([
       { text: row.cursor ? '> ' : '  ', style: { bold: true } },
@@ -189,7 +242,7 @@ function paintOverview(model: OverviewModel): Partial<Record<PanelName, PaintedP
   while (lines.length < height) lines.push(fitLine([], width));
   return {
     header: { rect: layout.header, lines: [fitLine([{ text: model.title, style: { bold: true } }], layout.header.width)] },
-    overview: { rect: layout.overview, title: ' runs, worst first (enter opens one) ', lines: lines.slice(0, height) },
+    overview: { rect: layout.overview, title: ` runs, worst first${above + below > 0 ? ` (${above + below} out of view)` : ''}; enter opens one `, lines: lines.slice(0, height) },
     footer: { rect: layout.footer, lines: [fitLine([{ text: model.footer, style: { fg: 'gray' } }], layout.footer.width)] },
   };
 }

@@ -26,18 +26,22 @@ describe('niceTicks', () => {
 });
 
 describe('decadeTicks', () => {
-  it('gives every decade when there is room', () => {
-    expect(decadeTicks(-4, 0, 10)).toEqual([-4, -3, -2, -1, 0]);
+  it('gives every decade when a step of one is allowed', () => {
+    expect(decadeTicks(-4, 0, 1)).toEqual([-4, -3, -2, -1, 0]);
   });
-  it('thins to at most maxCount, counted down from the top decade', () => {
-    const ticks = decadeTicks(-12, 0, 4);
-    expect(ticks.length).toBeLessThanOrEqual(4);
-    expect(ticks[ticks.length - 1]).toBe(0);
-    expect(ticks).toEqual([-12, -8, -4, 0]);
+  // Steps of 1, 2, 3, 5, then 10, 20, 50 decades (our choice: 3 decades is the engineering prefix step).
+  it.each([
+    [-12, 0, 2.5, [-12, -9, -6, -3, 0]],
+    [-7, 0, 3.3, [-5, 0]],
+    [-6, 1, 1.5, [-6, -4, -2, 0]],
+    [0, 93, 39, [0, 50]],
+    [-300, 10, 120, [-200, 0]],
+  ])('from 1e%i to 1e%i, at least %s decades apart: the multiples of the step, %j', (min, max, minStep, expected) => {
+    expect(decadeTicks(min, max, minStep)).toEqual(expected);
   });
   it('rounds inwards and gives nothing for an empty range', () => {
-    expect(decadeTicks(-2.5, 0.5, 10)).toEqual([-2, -1, 0]);
-    expect(decadeTicks(0.2, 0.8, 10)).toEqual([]);
-    expect(decadeTicks(0, 3, 0)).toEqual([]);
+    expect(decadeTicks(-2.5, 0.5, 1)).toEqual([-2, -1, 0]);
+    expect(decadeTicks(0.2, 0.8, 1)).toEqual([]);
+    expect(decadeTicks(0, 3, Number.NaN)).toEqual([]);
   });
 });

@@ -103,3 +103,14 @@ describe('drawSegment (Bresenham 1965)', () => {
     }
   });
 });
+
+describe('paintChart legend', () => {
+  const legend = [{ name: 'res_psi', style: 0 }, { name: 'res_omega', style: 1 }, { name: 'res_T', style: 2 }];
+  const levels = [{ y: 0.5, kind: 'target' as const, label: 'target 1e-3' }];
+  it('names series and levels in full when there is room', () => {
+    expect(plainText(paintChart(chart({ legend, levels }), 60, 6, 6, true)[0])).toBe(`${'o res_psi  + res_omega  x res_T  ·· target 1e-3'.padEnd(60)}`);
+  });
+  it('packs the legend (one space, levels by value) rather than cut it, when it is too wide', () => {
+    expect(plainText(paintChart(chart({ legend, levels }), 38, 6, 6, true)[0])).toBe(`${'o res_psi + res_omega x res_T ·· 1e-3'.padEnd(38)}`);
+  });
+});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildOverviewModel, overviewOrder, worstResidual } from '../../src/ui/build-overview-model.js';
+import { buildOverviewModel, commonFolder, overviewOrder, worstResidual } from '../../src/ui/build-overview-model.js';
 import type { RunSummary } from '../../src/ui/build-overview-model.js';
 import { initialViewState } from '../../src/ui/view-state.js';
 import { SeriesStore } from '../../src/series/series-store.js';
@@ -38,5 +38,30 @@ describe('overview of runs', () => {
     store.add({ iteration: 1, values: new Map([['res_p', 1e-3], ['res_T', Number.NaN]]) }, (name) => ({ name, kind: 'residual' }));
     expect(worstResidual(store.snapshot())).toBe('res_T NaN');
     expect(worstResidual(new SeriesStore().snapshot())).toBe('');
+  });
+});
+
+describe('commonFolder', () => {
+  it.each([
+    [['sample-logs/a.log', 'sample-logs/b.csv'], 'sample-logs/'],
+    [['/runs/wing/a/run.log', '/runs/wing/b/run.log'], '/runs/wing/'],
+    [['/runs/wing-a/run.log', '/runs/wing-b/run.log'], '/runs/'],
+    [['a.log', 'b.log'], ''],
+    [['x/a.log'], ''],
+    [['x/a.log', 'y/a.log'], ''],
+    [['/a/x.log', 'b.log'], ''],
+    [['/a/x.log', '/b/y.log'], '/'],
+  ])('of %j is %j (whole path parts only)', (labels, expected) => {
+    expect(commonFolder(labels)).toBe(expected);
+  });
+
+  it('names runs inside the shared folder and the folder in the title, while it fits', () => {
+    const runs = [summary('case/a.log', 'converged'), summary('case/b.log', 'diverging')];
+    const wide = buildOverviewModel(runs, initialViewState(2), { cols: 100, rows: 30 }, 0);
+    expect(wide.rows.map((row) => row.label)).toEqual(['b.log', 'a.log']);
+    expect(wide.title).toBe('2 runs in case/: 1 diverging, 1 converged');
+    // 41 characters do not fit 36 columns: the folder goes first, then the count.
+    expect(buildOverviewModel(runs, initialViewState(2), { cols: 36, rows: 30 }, 0).title).toBe('2 runs: 1 diverging, 1 converged');
+    expect(buildOverviewModel(runs, initialViewState(2), { cols: 30, rows: 30 }, 0).title).toBe('1 diverging, 1 converged');
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildViewModel, chartedQuantities, tableOrder } from '../../src/ui/build-view-model.js';
+import { buildViewModel, chartedQuantities, tableOrder, withoutLeadingName } from '../../src/ui/build-view-model.js';
 import type { RunContext } from '../../src/ui/build-view-model.js';
 import { initialViewState } from '../../src/ui/view-state.js';
 import type { ViewState } from '../../src/ui/view-state.js';
@@ -220,7 +220,7 @@ describe('buildViewModel: quantity chart', () => {
 
   it('shows the selected quantity with its settled mean and 95 % band from the truncation point', () => {
     const chart = buildViewModel(diagnosis, steadyStore(900).snapshot(), view(), pace(), size, 0, context).quantity;
-    expect(chart.title).toBe('nu_hot (1 of 3, ] next)');
+    expect(chart.title).toBe('nu_hot · 1 of 3');
     expect(chart.levels).toEqual([
       { y: 4.519, kind: 'mean', fromX: 300, label: 'mean 4.5190' },
       { y: 4.517, kind: 'band', fromX: 300, label: '95 %' },
@@ -232,9 +232,9 @@ describe('buildViewModel: quantity chart', () => {
 
   it('steps through quantities, wrapping both ways, and gives the unit', () => {
     const snapshot = steadyStore(10).snapshot();
-    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: 1 }), pace(), size, 0, context).quantity.title).toBe('dp [Pa] (2 of 3, ] next)');
-    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: 3 }), pace(), size, 0, context).quantity.title).toBe('nu_hot (1 of 3, ] next)');
-    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: -1 }), pace(), size, 0, context).quantity.title).toBe('cfl (3 of 3, ] next)');
+    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: 1 }), pace(), size, 0, context).quantity.title).toBe('dp [Pa] · 2 of 3');
+    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: 3 }), pace(), size, 0, context).quantity.title).toBe('nu_hot · 1 of 3');
+    expect(buildViewModel(diagnosis, snapshot, view({ quantityIndex: -1 }), pace(), size, 0, context).quantity.title).toBe('cfl · 3 of 3');
   });
 
   it('gives a flat quantity a visible, non-empty range', () => {
@@ -267,5 +267,16 @@ describe('buildViewModel: timeline and the rest', () => {
     buildViewModel(diagnosis, snapshot, state, Object.freeze(pace()), size, 0, Object.freeze({ ...context }));
     expect(Array.from(snapshot.series[0].values.subarray(0, snapshot.series[0].length))).toEqual(values);
     expect([...state.hidden]).toEqual(['res_u']);
+  });
+});
+
+describe('withoutLeadingName', () => {
+  it.each([
+    ['res_p falling 2 orders per 1000 iterations', 'res_p', 'falling 2 orders per 1000 iterations'],
+    ['res_pressure falling', 'res_p', 'res_pressure falling'],
+    ['res_p', 'res_p', 'res_p'],
+    ['no steady part yet', 'nu_hot', 'no steady part yet'],
+  ])('%j beside %s reads %j', (reason, name, expected) => {
+    expect(withoutLeadingName(reason, name)).toBe(expected);
   });
 });

@@ -42,3 +42,27 @@ describe('dashboardLayout', () => {
     expect(layoutFits(80, 17)).toBe(false);
   });
 });
+
+describe('dashboardLayout with a series count', () => {
+  it('shrinks a stacked table to its series and gives the rows it frees to the timeline', () => {
+    const plain = dashboardLayout(120, 40);
+    const fitted = dashboardLayout(120, 40, 7);
+    // Border (2) + column titles (1) + 7 series.
+    expect(fitted.table.height).toBe(10);
+    expect(fitted.timeline.top).toBe(fitted.table.top + 10);
+    expect(fitted.table.height + fitted.timeline.height).toBe(plain.table.height + plain.timeline.height);
+    expect(fitted.timeline.height).toBeGreaterThan(plain.timeline.height);
+  });
+
+  it('never shrinks the timeline below its minimum, however many series there are', () => {
+    expect(dashboardLayout(80, 24, 40)).toEqual(dashboardLayout(80, 24));
+    expect(dashboardLayout(80, 24, 40).timeline.height - 2).toBeGreaterThanOrEqual(2);
+  });
+
+  it.each([[80, 24, 0], [80, 24, 3], [120, 40, 1], [100, 30, 12]])('at %i×%i with %i series still tiles the screen', (cols, rows, count) => {
+    const layout = dashboardLayout(cols, rows, count);
+    const area = runPanels.reduce((sum, name) => sum + layout[name].width * layout[name].height, 0);
+    expect(area).toBe(cols * rows);
+    for (const a of runPanels) for (const b of runPanels) if (a !== b) expect(overlaps(layout[a], layout[b])).toBe(false);
+  });
+});

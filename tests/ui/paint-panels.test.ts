@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { paintDashboard, paintHeader, paintTable } from '../../src/ui/paint-panels.js';
+import { paintDashboard, paintHeader, paintTable, paintVerdict, splitAtWord, tableTitle } from '../../src/ui/paint-panels.js';
 import { buildViewModel } from '../../src/ui/build-view-model.js';
 import { buildOverviewModel } from '../../src/ui/build-overview-model.js';
 import { initialViewState, KEY_HELP } from '../../src/ui/view-state.js';
@@ -80,5 +80,64 @@ describe('paintTable', () => {
     expect(text).toHaveLength(5);
     expect(text.some((line) => line.includes('res_10'))).toBe(true);
     expect(text.some((line) => line.includes('res_0 '))).toBe(false);
+  });
+});
+
+describe('paintHeader when narrow', () => {
+  const header = model(80, 24).header;
+  it('drops the reading pace before cutting the file name to its base name', () => {
+    const full = { ...header, file: 'sample-logs/cavity-healthy.block.log', position: 'iteration 2 214', growth: 'grew 2 s ago' };
+    const line = plainText(paintHeader(full, 80));
+    expect(line).toMatch(/^…\/cavity-healthy\.block\.log · settle-kv · /);
+    expect(line).toContain('iteration 2 214');
+    expect(line).toContain('grew 2 s ago');
+    expect(line).not.toContain('lines/s');
+    // 120 columns have room for everything.
+    const wide = plainText(paintHeader(full, 120));
+    expect(wide).toContain('lines/s');
+    expect(wide).toContain('settle-kv');
+  });
+  it('cuts a path at a folder boundary where it can', () => {
+    const line = plainText(paintHeader({ ...header, file: '/scratch/projects/wing/very/long/path/to/case-17/run.log', position: 'time step 250 · t 1.250 · iteration 3 216' }, 80));
+    expect(line).toMatch(/^…\/[\w/-]*case-17\/run\.log /);
+  });
+});
+
+describe('paintVerdict', () => {
+  const verdict = { state: 'converged' as const, headline: 'CONVERGED (confirmed)', advice: 'stop: all residuals 5.9 orders down and 4 quantities settled to 0.1 %', details: 'res_psi 6 decades below its peak' };
+  it('lets the advice run on into the second line instead of cutting it, details after it', () => {
+    const [first, second] = paintVerdict(verdict, 80).map(plainText);
+    expect(first.length).toBe(80);
+    expect(`${first.trim()} ${second.trim()}`).toContain(verdict.advice);
+    expect(second).toContain('— res_psi 6 decades');
+    expect(first.trimEnd().endsWith('…')).toBe(false);
+  });
+  it('keeps advice and details on their own lines when the advice fits', () => {
+    const [first, second] = paintVerdict(verdict, 120).map(plainText);
+    expect(first).toContain(verdict.advice);
+    expect(second.trim()).toBe(verdict.details);
+  });
+});
+
+describe('splitAtWord', () => {
+  it.each([
+    ['keep going: about 340 iterations', 40, ['keep going: about 340 iterations', '']],
+    ['keep going: about 340 iterations', 17, ['keep going: about', '340 iterations']],
+    ['keep going: about 340 iterations', 11, ['keep going:', 'about 340 iterations']],
+    ['abcdefghij more', 5, ['abcd…', 'efghij more']],
+    ['', 5, ['', '']],
+  ])('%j in %i cells: %j', (text, width, expected) => {
+    expect(splitAtWord(text, width)).toEqual(expected);
+  });
+});
+
+describe('tableTitle', () => {
+  const rows = (count: number, cursor: number) => Array.from({ length: count }, (_, i) => ({ cursor: i === cursor }));
+  it('counts the series scrolled out of view', () => {
+    expect(tableTitle(rows(3, 0), 5)).toBe(' series ');
+    // 5 lines: titles and 4 series; 7 series with the cursor on the first: 3 below.
+    expect(tableTitle(rows(7, 0), 5)).toBe(' series (7; 3 below: j k scroll) ');
+    expect(tableTitle(rows(7, 5), 5)).toBe(' series (7; 2 above, 1 below: j k scroll) ');
+    expect(tableTitle(rows(7, 6), 5)).toBe(' series (7; 3 above: j k scroll) ');
   });
 });
