@@ -1,6 +1,6 @@
 /**
  * A deterministic benchmark log in the settle-block format: one header line and 7 value lines per
- * iteration (5 residuals, 2 monitored quantities), about 50 bytes a line. Values come from a smooth
+ * iteration (5 residuals, 2 monitored quantities), about 48 bytes a line on average (so 16 million lines make about 800 MB, as the issue asks). Values come from a smooth
  * geometric decay with a deterministic wobble (an LCG), so every byte is the same on every run.
  * Invented data, for timing only.
  */
@@ -9,6 +9,8 @@ import { once } from 'node:events';
 
 const RESIDUALS = ['res_p', 'res_ux', 'res_uy', 'res_k', 'res_T'];
 const QUANTITIES = ['drag', 'dp'];
+/** Width of the value column: sized so the file comes out near 50 bytes a line. */
+const VALUE_WIDTH = 28;
 
 export async function generateBenchLog(path: string, targetLines: number): Promise<{ lines: number; bytes: number }> {
   const out = createWriteStream(path);
@@ -24,10 +26,10 @@ export async function generateBenchLog(path: string, targetLines: number): Promi
     let block = `=== iteration ${iteration} ===\n`;
     for (let k = 0; k < RESIDUALS.length; k++) {
       const value = Math.pow(10, -iteration * (1 + k) / 400_000) * (1 + wobble());
-      block += `  residual  ${RESIDUALS[k].padEnd(10)}${value.toExponential(6).padStart(16)}\n`;
+      block += `  residual  ${RESIDUALS[k].padEnd(10)}${value.toExponential(6).padStart(VALUE_WIDTH)}\n`;
     }
-    block += `  monitor   ${QUANTITIES[0].padEnd(10)}${(0.3312 + 0.01 / Math.sqrt(iteration) + wobble() * 1e-3).toFixed(8).padStart(16)}  [-]\n`;
-    block += `  monitor   ${QUANTITIES[1].padEnd(10)}${(120.4 + 5 / Math.sqrt(iteration) + wobble()).toFixed(6).padStart(16)}  [Pa]\n`;
+    block += `  monitor   ${QUANTITIES[0].padEnd(10)}${(0.3312 + 0.01 / Math.sqrt(iteration) + wobble() * 1e-3).toFixed(8).padStart(VALUE_WIDTH)}  [-]\n`;
+    block += `  monitor   ${QUANTITIES[1].padEnd(10)}${(120.4 + 5 / Math.sqrt(iteration) + wobble()).toFixed(6).padStart(VALUE_WIDTH)}  [Pa]\n`;
     lines += 8;
     chunk += block;
     if (chunk.length > 1 << 20) {

@@ -49,7 +49,7 @@ async function readThroughput(): Promise<void> {
   const lines = Number(process.env.SETTLE_BENCH_LINES ?? 16_000_000);
   const dir = process.env.SETTLE_BENCH_DIR ?? join(tmpdir(), 'settle-bench');
   mkdirSync(dir, { recursive: true });
-  const log = join(dir, `bench-block-${lines}.log`);
+  const log = join(dir, `bench-block-v2-${lines}.log`);
   if (!existsSync(log)) {
     process.stdout.write(`generating ${log} (${lines} lines)...\n`);
     await generateBenchLog(log, lines);
