@@ -1,7 +1,7 @@
 /**
  * A deterministic benchmark log in the settle-block format: one header line and 7 value lines per
- * iteration (5 residuals, 2 monitored quantities), about 48 bytes a line on average (so 16 million lines make about 800 MB, as the issue asks). Values come from a smooth
- * geometric decay with a deterministic wobble (an LCG), so every byte is the same on every run.
+ * iteration (5 residuals, 2 monitored quantities), about 48 bytes a line on average, so 16 million
+ * lines make about 800 MB, as the issue asks. Values come from a smooth geometric decay with a deterministic wobble (an LCG), so every byte is the same on every run.
  * Invented data, for timing only.
  */
 import { createWriteStream } from 'node:fs';
