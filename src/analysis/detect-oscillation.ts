@@ -14,6 +14,9 @@
  * callers bound n (the run judge uses at most 2 048).
  */
 import { autocovariance } from './autocovariance.js';
+import { ScratchBuffer } from './scratch-buffer.js';
+
+const detrended = new ScratchBuffer();
 export interface Oscillation {
   /** Period in samples (fractional). */
   readonly period: number;
@@ -39,7 +42,7 @@ export function detectOscillation(values: ArrayLike<number>, from: number, to: n
   }
   const slope = (n * sxy - sx * sy) / (n * sxx - sx * sx);
   const intercept = (sy - slope * sx) / n;
-  const d = new Float64Array(n);
+  const d = detrended.view(n);
   let variance = 0;
   let scale = 0;
   for (let i = 0; i < n; i++) {

@@ -19,5 +19,8 @@ export function isEvaluationPoint(records: number): boolean {
 /** Records between scheduled evaluations around `records` (10 early, then a power of two). */
 export function evaluationSpacing(records: number): number {
   if (records <= DENSE_UNTIL) return DENSE_EVERY;
+  const quotient = Math.floor(records / 64);
+  // The largest power of two not above records/64: from the leading bit (cheap, called per record).
+  if (quotient < 2 ** 30) return 1 << (31 - Math.clz32(quotient));
   return 2 ** Math.floor(Math.log2(records / 64));
 }

@@ -26,7 +26,9 @@
  *    remaining-change.ts) within qoiTol; reported with the extrapolated limit ± that tail.
  * Settled means: relative half-width ≤ qoiTol, no drift, no significant iteration error left.
  * Tolerances are relative to |mean| (or to 1 when the mean is exactly 0).
- * Cost: O(n) for n ≤ 16 384 samples, plus the cycle test O(2048²/3) only when the quantity varies.
+ * Cost: O(n) for n ≤ 16 384 samples, plus the cycle test O(2048 log 2048) only when the quantity
+ * varies, and not again while a recent test found no cycle and little new data arrived
+ * (cycle-test-memo.ts).
  */
 import type { SeriesDiagnosis, State } from './diagnosis.js';
 import type { SeriesInfo } from '../parse/log-record.js';
@@ -37,6 +39,7 @@ import { detectOscillation } from './detect-oscillation.js';
 import { remainingChange } from './remaining-change.js';
 import { cycleStability, refinePeriod } from './cycle-stability.js';
 import { quantityBlowUp } from './quantity-blow-up.js';
+import { noCycleStillHolds, recordCycleTest, type CycleTestClock } from './cycle-test-memo.js';
 import { formatCount, formatEstimate, formatMeanInterval, formatPercent, formatResidual, formatValue } from './format-figures.js';
 
 export const QUANTITY_SPAN = 16384;
@@ -65,8 +68,11 @@ export interface QuantitySamples {
 /** Default trailing window (iterations) for the remaining-change rule: DEFAULT_CRITERIA.window. */
 export const DEFAULT_QUANTITY_WINDOW = 200;
 
-export function judgeQuantity(samples: QuantitySamples, qoiTol: number, window = DEFAULT_QUANTITY_WINDOW): SeriesDiagnosis {
-  const judged = judgeByStatistics(samples, qoiTol);
+/** `cycleClock`: where the judge keeps the last no-cycle result of this series (cycle-test-memo.ts);
+ * without it the steady-state cycle test (step 5) runs whenever the quantity visibly varies. */
+export function judgeQuantity(samples: QuantitySamples, qoiTol: number, window = DEFAULT_QUANTITY_WINDOW,
+  cycleClock?: CycleTestClock): SeriesDiagnosis {
+  const judged = judgeByStatistics(samples, qoiTol, cycleClock);
   if (judged.state !== 'converging' || judged.period !== undefined) return judged;
   return settledByRemainingChange(samples, qoiTol, window) ?? judged;
 }
@@ -104,7 +110,7 @@ function settledByRemainingChange(samples: QuantitySamples, qoiTol: number, wind
   };
 }
 
-function judgeByStatistics(samples: QuantitySamples, qoiTol: number): SeriesDiagnosis {
+function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock: CycleTestClock | undefined): SeriesDiagnosis {
   const { info } = samples;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last };
   const with_ = (state: State, reason: string, extra: Partial<SeriesDiagnosis> = {}): SeriesDiagnosis => ({ ...base, state, reason, ...extra });
@@ -151,7 +157,9 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number): SeriesDiag
   // A visible cycle: in a steady run a fault; in a transient run the state to average over.
   if (sd > allowed && n - keptFrom >= 48) {
     const cycleFrom = Math.max(keptFrom, n - CYCLE_POINTS);
-    const cycle = detectOscillation(values, cycleFrom, n);
+    const skip = noCycleStillHolds(cycleClock, n - cycleFrom);
+    const cycle = skip ? null : detectOscillation(values, cycleFrom, n);
+    if (!skip) recordCycleTest(cycleClock, cycle !== null);
     if (cycle !== null) {
       const spacing = (lastIteration - iterations[cycleFrom]) / Math.max(1, n - 1 - cycleFrom);
       const period = cycle.period * spacing;

@@ -23,7 +23,8 @@
  *   100 windows);
  * - stalled: a whole window seen, flat or crawling, no cycle; before that converging or undecided.
  * Cost: O(log n + m² log m) with m ≤ 48 Theil–Sen points, plus O(1024²/3) for the cycle test,
- * which runs only when the trend does not clearly dominate the wiggle.
+ * which runs only when the trend does not clearly dominate the wiggle, and not again while a recent
+ * test found no cycle and little new data has arrived (cycle-test-memo.ts).
  */
 import type { SeriesColumn } from '../series/series-column.js';
 import type { SeriesDiagnosis, State } from './diagnosis.js';
@@ -33,7 +34,9 @@ import { firstIndexAtOrAfter, segmentStartIndex } from './segment-tracker.js';
 import { safeLog10 } from './safe-log10.js';
 import { theilSenSlope } from './theil-sen-slope.js';
 import { detectOscillation } from './detect-oscillation.js';
+import { noCycleStillHolds, recordCycleTest, type CycleTestClock } from './cycle-test-memo.js';
 import { formatCount, formatDecades, formatEstimate, formatResidual } from './format-figures.js';
+import { ScratchBuffer } from './scratch-buffer.js';
 
 /** A rise of this many decades above the window's minimum is a divergence jump (common practice). */
 export const JUMP_DECADES = 3;
@@ -44,12 +47,21 @@ export const USEFUL_FACTOR = 100;
 /** Most points given to the cycle test. */
 export const OSCILLATION_POINTS = 1024;
 
+// Working arrays reused between evaluations (scratch-buffer.ts): never kept past one call.
+const recentScratch = new ScratchBuffer();
+const windowScratch = new ScratchBuffer();
+const cycleScratch = new ScratchBuffer();
+const deviationScratch = new ScratchBuffer();
+
 export interface ResidualJudgeOptions {
   readonly window: number;
   readonly startup: number;
 }
 
-export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, options: ResidualJudgeOptions): SeriesDiagnosis {
+/** `cycleClock`: where the judge keeps the last no-cycle result of this series (cycle-test-memo.ts);
+ * without it the cycle test runs whenever its guard lets it. */
+export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, options: ResidualJudgeOptions,
+  cycleClock?: CycleTestClock): SeriesDiagnosis {
   const { info } = column;
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last };
@@ -65,12 +77,12 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   const judgedFromIteration = memo.start + options.startup;
   const judgedFrom = firstIndexAtOrAfter(column, segmentStart, end, judgedFromIteration);
 
-  const logs = (from: number, to: number): Float64Array => {
-    const out = new Float64Array(to - from);
+  const logs = (from: number, to: number, scratch: ScratchBuffer): Float64Array => {
+    const out = scratch.view(to - from);
     for (let i = from; i < to; i++) out[i - from] = safeLog10(column.values[i]);
     return out;
   };
-  const recent = logs(Math.max(segmentStart, end - 5), end).sort();
+  const recent = logs(Math.max(segmentStart, end - 5), end, recentScratch).sort();
   const nowLog = recent[recent.length >> 1];
   const peakLog = memo.peakLog;
   const dropDecades = peakLog - nowLog;
@@ -85,18 +97,18 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   // The drop is measured from a peak that lies before the recent points: when the peak is among the
   // last five values (the residual is blowing up right now), falling "below the peak" means nothing.
   const peakIsRecent = !(memo.peakIteration < column.iterations[Math.max(segmentStart, end - 5)]);
+  const windowFrom = Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1));
+  const windowLogs = logs(windowFrom, end, windowScratch);
   if (nowLog <= levelLog && !peakIsRecent) {
     const why = rule.target !== undefined && nowLog <= safeLog10(rule.target) && dropDecades < rule.drop
       ? `below the target ${formatResidual(rule.target)}`
       : `${formatDecades(dropDecades)} decades below its peak`;
-    return with_('converged', `${info.name} ${why}`, { ...common, ...trendFields(column, Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1)), end, levelLog, nowLog, true) });
+    return with_('converged', `${info.name} ${why}`, { ...common, ...trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, true) });
   }
 
-  const windowFrom = Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1));
   if (end - windowFrom < 5) return with_('undecided', `too few points in the last ${formatCount(options.window)} iterations`, common);
-  const trend = trendFields(column, windowFrom, end, levelLog, nowLog, false);
+  const trend = trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, false);
   const slope = Math.log10(trend.rho);
-  const windowLogs = logs(windowFrom, end);
   let minLog = Number.POSITIVE_INFINITY;
   let minAt = windowFrom;
   for (let i = 0; i < windowLogs.length; i++) {
@@ -124,9 +136,10 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   const spread = spreadAroundLine(column.iterations, windowLogs, windowFrom, slope);
   if (windowSeen && fall < 2 * spread) {
     const cycleFrom = Math.max(judgedFrom, end - Math.min(OSCILLATION_POINTS, Math.max(4 * (end - windowFrom), 256)));
-    const cycleLogs = logs(cycleFrom, end);
-    const cycle = detectOscillation(cycleLogs, 0, cycleLogs.length);
-    if (cycle !== null) {
+    const cycleLogs = noCycleStillHolds(cycleClock, end - cycleFrom) ? null : logs(cycleFrom, end, cycleScratch);
+    const cycle = cycleLogs === null ? null : detectOscillation(cycleLogs, 0, cycleLogs.length);
+    if (cycleLogs !== null) recordCycleTest(cycleClock, cycle !== null);
+    if (cycle !== null && cycleLogs !== null) {
       const regionSlope = theilSenSlope(column.iterations.subarray(cycleFrom, end), cycleLogs, 0, cycleLogs.length);
       const netFall = -regionSlope * (lastIteration - column.iterations[cycleFrom]);
       if (netFall < cycle.amplitude) {
@@ -158,11 +171,10 @@ interface TrendFields {
   readonly eta?: number;
 }
 
-function trendFields(column: SeriesColumn, from: number, to: number, levelLog: number, nowLog: number, reached: boolean): TrendFields {
+/** Trend over [from, to) of the column, given log10 of its values there (`logs`, to − from long). */
+function trendFields(column: SeriesColumn, from: number, to: number, logs: Float64Array, levelLog: number, nowLog: number, reached: boolean): TrendFields {
   const n = to - from;
   if (n < 2) return { rho: Number.NaN, ordersPerKilo: Number.NaN };
-  const logs = new Float64Array(n);
-  for (let i = 0; i < n; i++) logs[i] = safeLog10(column.values[from + i]);
   const slope = theilSenSlope(column.iterations.subarray(from, to), logs, 0, n);
   const fields: TrendFields = { rho: 10 ** slope, ordersPerKilo: -1000 * slope };
   if (reached) return { ...fields, eta: 0 };
@@ -176,7 +188,7 @@ function trendFields(column: SeriesColumn, from: number, to: number, levelLog: n
 function spreadAroundLine(iterations: Float64Array, logs: Float64Array, from: number, slope: number): number {
   const m = Math.min(logs.length, 512);
   if (m < 2) return 0;
-  const deviations = new Float64Array(m);
+  const deviations = deviationScratch.view(m);
   for (let k = 0; k < m; k++) {
     const i = Math.round((k * (logs.length - 1)) / (m - 1));
     deviations[k] = logs[i] - slope * iterations[from + i];

@@ -18,6 +18,7 @@
  *
  * @example mserTruncation(values, 0, values.length) // → { truncatePoints: 150, settled: true, … }
  */
+import { ScratchBuffer } from './scratch-buffer.js';
 export interface MserResult {
   /** Batches dropped (d). */
   readonly truncateBatches: number;
@@ -31,10 +32,12 @@ export interface MserResult {
 
 export const MSER_BATCH = 5;
 
+const batchMeans = new ScratchBuffer();
+
 export function mserTruncation(values: ArrayLike<number>, from: number, to: number, batchSize = MSER_BATCH): MserResult | null {
   const k = Math.floor((to - from) / batchSize);
   if (!(k >= 10)) return null;
-  const z = new Float64Array(k);
+  const z = batchMeans.view(k);
   for (let j = 0; j < k; j++) {
     let sum = 0;
     const start = from + j * batchSize;

@@ -6,6 +6,8 @@
  * What it keeps between evaluations (all pure data, no clock):
  * - per series, a segment memo (segment-tracker.ts): the peak and restart bookkeeping, advanced by the
  *   new points only, so an update costs O(new points + bounded windows);
+ * - per series, the last cycle test that found no cycle (cycle-test-memo.ts), so the costly cycle
+ *   test is not repeated on nearly the same data;
  * - per series and for the run, the raw state and for how many consecutive evaluations it has held.
  *   A stopping alarm (stalled, oscillating, diverging) is shown only once it has held for
  *   `criteria.confirm` evaluations; until then the previous state is shown with a note. `final` is
@@ -26,6 +28,7 @@ import { judgeTransientResidual, RECENT_STEPS, type StepRange } from './judge-tr
 import { adviseRun, criteriaResults, isAlarm, rawVerdict, type AlarmReasons, type CountedSeries } from './advise-run.js';
 import { formatCount, formatMeanInterval, formatResidual, formatValue } from './format-figures.js';
 import { validateCriteria } from './validate-criteria.js';
+import type { CycleTestClock, NoCycleMemo } from './cycle-test-memo.js';
 
 export interface RunJudge {
   update(snapshot: RunSnapshot): RunDiagnosis;
@@ -40,6 +43,8 @@ interface Held {
 
 interface JudgeState {
   readonly memos: ReadonlyMap<string, SegmentMemo>;
+  /** Per series, the last cycle test that found no cycle (cycle-test-memo.ts). */
+  readonly cycles: ReadonlyMap<string, NoCycleMemo>;
   readonly series: ReadonlyMap<string, Held>;
   readonly run: Held;
   readonly timeline: readonly StateChange[];
@@ -58,7 +63,7 @@ export interface RunJudgeOptions {
 export function createRunJudge(criteria: Criteria, options: RunJudgeOptions = {}): RunJudge {
   const problems = validateCriteria(criteria);
   if (problems.length > 0) throw new RangeError(`invalid criteria: ${problems.join('; ')}`);
-  let state: JudgeState = { memos: new Map(), series: new Map(), run: INITIAL, timeline: [], alarmReasons: {} };
+  let state: JudgeState = { memos: new Map(), cycles: new Map(), series: new Map(), run: INITIAL, timeline: [], alarmReasons: {} };
   const confirm = options.confirmed === true ? 1 : criteria.confirm;
   return {
     update(snapshot) {
@@ -80,6 +85,7 @@ function hold(previous: Held, raw: State, confirm: number): Held {
 
 function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, confirm: number): { diagnosis: RunDiagnosis; next: JudgeState } {
   const memos = new Map(state.memos);
+  const cycles = new Map(state.cycles);
   const heldSeries = new Map(state.series);
   const changes: StateChange[] = [];
   const lastIteration = Number.isFinite(snapshot.lastIteration) ? snapshot.lastIteration : 0;
@@ -94,7 +100,10 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
     const memo = advanceSegment(state.memos.get(name), column, snapshot.restarts);
     memos.set(name, memo);
     const rule = resolveSeriesCriteria(criteria, name);
-    const raw = judgeSeries(column, memo, rule, criteria, snapshot, steps);
+    const clock: CycleTestClock = { slot: { memo: state.cycles.get(name) }, points: column.totalAdded, segment: memo.segments };
+    const raw = judgeSeries(column, memo, rule, criteria, snapshot, steps, clock);
+    if (clock.slot.memo === undefined) cycles.delete(name);
+    else cycles.set(name, clock.slot.memo);
     const previous = state.series.get(name) ?? INITIAL;
     const held = hold(previous, raw.state, confirm);
     heldSeries.set(name, held);
@@ -146,7 +155,7 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
     criteria: criteriaResults(counted),
     final,
   };
-  return { diagnosis, next: { memos, series: heldSeries, run, timeline, alarmReasons } };
+  return { diagnosis, next: { memos, cycles, series: heldSeries, run, timeline, alarmReasons } };
 }
 
 function changeText(d: SeriesDiagnosis): string {
@@ -158,16 +167,16 @@ function changeText(d: SeriesDiagnosis): string {
 }
 
 function judgeSeries(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, criteria: Criteria, snapshot: RunSnapshot,
-  steps: RunSnapshot['timeSteps']): SeriesDiagnosis {
+  steps: RunSnapshot['timeSteps'], clock: CycleTestClock): SeriesDiagnosis {
   const { info } = column;
   if (info.kind === 'residual') {
     if (steps !== undefined) {
       const ranges = stepRanges(column, snapshot, steps, RECENT_STEPS + 1).slice(0, -1);
       if (ranges.length > 0 || steps.length > 1) return judgeTransientResidual(column, memo, rule, ranges, criteria.startup);
     }
-    return judgeResidual(column, memo, rule, { window: criteria.window, startup: criteria.startup });
+    return judgeResidual(column, memo, rule, { window: criteria.window, startup: criteria.startup }, clock);
   }
-  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol, criteria.window);
+  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol, criteria.window, clock);
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   return { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last, state: 'undecided', reason: `${info.name} is shown, not judged` };
 }

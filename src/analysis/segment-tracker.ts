@@ -50,54 +50,70 @@ export function advanceSegment(memo: SegmentMemo | undefined, column: SeriesColu
     newPoints = column.length;
   }
   if (!fresh && newPoints === 0) return memo!;
-  const m = fresh ? { ...EMPTY } : { ...memo! };
+  const from = fresh ? EMPTY : memo!;
+  // Locals in the loop (it visits every point once): object fields are written back at the end.
+  let { lastIteration, restartsUsed, start, segments, points, peakLog, peakIteration, firstNonFinite, nonFiniteValue } = from;
   // |value| at the peak (a lower bound of it, so no candidate is missed): 10^peakLog rounded down.
-  let peakAbs = Number.isFinite(m.peakLog) ? 10 ** m.peakLog * (1 - 1e-12) : -1;
-  for (let index = column.length - newPoints; index < column.length; index++) {
-    const iteration = column.iterations[index];
-    const value = column.values[index];
-    const descent = m.points > 0 && iteration <= m.lastIteration;
-    let begins = descent || m.points === 0;
-    while (m.restartsUsed < restarts.length && restarts[m.restartsUsed] <= iteration) {
-      if (m.points > 0 && (descent || restarts[m.restartsUsed] > m.lastIteration)) begins = true;
-      m.restartsUsed++;
+  let peakAbs = Number.isFinite(peakLog) ? 10 ** peakLog * (1 - 1e-12) : -1;
+  const iterations = column.iterations;
+  const values = column.values;
+  const end = column.length;
+  const restartCount = restarts.length;
+  let nextRestart = restartsUsed < restartCount ? restarts[restartsUsed] : Number.POSITIVE_INFINITY;
+  for (let index = end - newPoints; index < end; index++) {
+    const iteration = iterations[index];
+    const value = values[index];
+    const descent = points > 0 && iteration <= lastIteration;
+    let begins = descent || points === 0;
+    while (nextRestart <= iteration) {
+      if (points > 0 && (descent || nextRestart > lastIteration)) begins = true;
+      restartsUsed++;
+      nextRestart = restartsUsed < restartCount ? restarts[restartsUsed] : Number.POSITIVE_INFINITY;
     }
     if (begins) {
       // Resumed from a checkpoint: the counter carries on from past the old peak, so the state before
       // the checkpoint is the same run and its peak stays the reference for the drop. A fresh start
       // (counter back to or below the old peak's iteration) or a peak after the checkpoint (e.g. an
       // attempt that blew up) starts the peak afresh.
-      const resumed = m.points > 0 && m.peakIteration < iteration;
-      m.start = iteration;
-      m.segments++;
-      m.points = 0;
+      const resumed = points > 0 && peakIteration < iteration;
+      start = iteration;
+      segments++;
+      points = 0;
       if (!resumed) {
-        m.peakLog = Number.NEGATIVE_INFINITY;
-        m.peakIteration = Number.NaN;
+        peakLog = Number.NEGATIVE_INFINITY;
+        peakIteration = Number.NaN;
         peakAbs = -1;
       }
-      m.firstNonFinite = Number.NaN;
-      m.nonFiniteValue = Number.NaN;
+      firstNonFinite = Number.NaN;
+      nonFiniteValue = Number.NaN;
     }
-    m.points++;
-    if (!Number.isFinite(value)) {
-      if (Number.isNaN(m.firstNonFinite)) {
-        m.firstNonFinite = iteration;
-        m.nonFiniteValue = value;
-      }
-    } else if (Math.abs(value) > peakAbs) {
+    points++;
+    const magnitude = Math.abs(value);
+    if (magnitude > peakAbs) {
       // A log only when the peak may move (log10 is monotone): most points cost one comparison.
-      const log = safeLog10(value);
-      if (log > m.peakLog) {
-        m.peakLog = log;
-        m.peakIteration = iteration;
-        peakAbs = Math.abs(value);
+      // (Infinity passes this test and is handled below; NaN fails every comparison.)
+      if (magnitude === Number.POSITIVE_INFINITY) {
+        if (firstNonFinite !== firstNonFinite) {
+          firstNonFinite = iteration;
+          nonFiniteValue = value;
+        }
+      } else {
+        const log = safeLog10(value);
+        if (log > peakLog) {
+          peakLog = log;
+          peakIteration = iteration;
+          peakAbs = magnitude;
+        }
       }
+    } else if (value !== value && firstNonFinite !== firstNonFinite) {
+      firstNonFinite = iteration;
+      nonFiniteValue = value;
     }
-    m.lastIteration = iteration;
+    lastIteration = iteration;
   }
-  m.added = column.totalAdded;
-  return m;
+  return {
+    added: column.totalAdded, lastIteration, restartsUsed, start, segments, points, peakLog, peakIteration, firstNonFinite, nonFiniteValue,
+  };
 }
 
 /** Index in the column of the segment's first retained point. */

@@ -14,6 +14,11 @@
  *
  * @example theilSenSlope([0, 1, 2, 3, 4], [0, 2, 4, 6, 100], 0, 5) // → 2 (the outlier does not pull it)
  */
+import { ScratchBuffer } from './scratch-buffer.js';
+const pointsX = new ScratchBuffer();
+const pointsY = new ScratchBuffer();
+const pairSlopes = new ScratchBuffer();
+
 export function theilSenSlope(
   xs: ArrayLike<number>,
   ys: ArrayLike<number>,
@@ -24,15 +29,15 @@ export function theilSenSlope(
   const length = to - from;
   if (!(length >= 2)) return Number.NaN;
   const m = Math.min(length, Math.max(2, Math.floor(maxPoints)));
-  const px = new Float64Array(m);
-  const py = new Float64Array(m);
+  const px = pointsX.view(m);
+  const py = pointsY.view(m);
   for (let k = 0; k < m; k++) {
     const index = from + (m === 1 ? 0 : Math.round((k * (length - 1)) / (m - 1)));
     px[k] = xs[index];
     py[k] = ys[index];
     if (!Number.isFinite(px[k]) || !Number.isFinite(py[k])) return Number.NaN;
   }
-  const slopes = new Float64Array((m * (m - 1)) / 2);
+  const slopes = pairSlopes.view((m * (m - 1)) / 2);
   let count = 0;
   for (let i = 0; i < m; i++) {
     for (let j = i + 1; j < m; j++) {
