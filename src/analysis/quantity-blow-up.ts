@@ -10,6 +10,10 @@
  * - the scale is an established level: at least half of the non-zero samples lie within a decade of it.
  *   A quantity that rises from near zero to its working level sweeps through many decades and has no
  *   such level yet, so a healthy start-up rise is not called a blow-up.
+ * - it is still growing: the last |value| is at least 10 times the |value| halfway between where it
+ *   left its level and now. A quantity that moved once to a new level and stays there (a lift
+ *   coefficient that was rounding noise around 0 in a symmetric start and then found its working
+ *   value) is a change of regime, not a blow-up.
  * The growth is reported from the last sample at or below twice the scale (where it left its level).
  *
  * Cost: O(n) comparisons over at most BLOW_UP_SCALE_POINTS evenly spaced samples (a deterministic
@@ -69,6 +73,8 @@ export function quantityBlowUp(values: ArrayLike<number>, iterations: ArrayLike<
   if (2 * level < nonZero) return null;
   let start = to - 1;
   while (start > from && !(Math.abs(values[start]) <= 2 * scale)) start--;
+  const halfway = start + Math.floor((to - 1 - start) / 2);
+  if (to - 1 - start > 2 && !(last >= 10 * Math.abs(values[halfway]))) return null;
   return {
     scale,
     fromValue: values[start],

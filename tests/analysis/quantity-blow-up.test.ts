@@ -46,6 +46,19 @@ describe('quantityBlowUp', () => {
     expect(b.toValue).toBe(1);
   });
 
+  it('rounding noise around 0 that finds a working level of 0.1 and stays there is a change of regime, not a blow-up', () => {
+    // A lift-like quantity: ~1e-10 noise while the flow is symmetric, then 0.1 for 30 iterations.
+    const values = Float64Array.from({ length: 90 }, (_, k) => (k < 60 ? 1e-10 * (1 + 0.3 * Math.sin(k)) : 0.1));
+    expect(quantityBlowUp(values, iterationsOf(90), 0, 90)).toBeNull();
+  });
+
+  it('the same noise followed by growth of ×1.5 per iteration that is still going on is a blow-up', () => {
+    const values = Float64Array.from({ length: 120 }, (_, k) => (k < 60 ? 1e-10 * (1 + 0.3 * Math.sin(k)) : 1e-10 * 1.5 ** (k - 59)));
+    const b = quantityBlowUp(values, iterationsOf(120), 0, 120)!;
+    expect(b).not.toBeNull();
+    expect(b.decades).toBeGreaterThan(9);
+  });
+
   it.each([
     ['too few samples', 19],
     ['empty range', 0],
