@@ -34,8 +34,10 @@ export class InputError extends SettleError {
   readonly exitCode = 3;
 }
 
-/** Cut a user's text (a line, a value) short for an error message. */
+/** Cut a user's text (a line, a value) short for an error message, on one line, with control
+ * characters and undecodable bytes shown as `?` so binary garbage cannot disturb the terminal. */
 export function shorten(text: string, max = 80): string {
-  const oneLine = text.replace(/[\r\n\t]+/g, ' ');
+  // eslint-disable-next-line no-control-regex
+  const oneLine = text.replace(/[\r\n\t]+/g, ' ').replace(/[\u0000-\u001f\u007f-\u009f\ufffd]/g, '?');
   return oneLine.length <= max ? oneLine : `${oneLine.slice(0, max - 1)}…`;
 }
