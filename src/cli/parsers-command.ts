@@ -50,8 +50,8 @@ export function formatSpecList(specs: readonly LoadedSpec[], configDir: string):
 interface SeriesTally { kind: SeriesKind; unit?: string; count: number; nonFinite: number; first: number; last: number }
 
 async function testSpec(specArg: string, logs: readonly string[], overrides: { residual: string[]; quantity: string[] }): Promise<string> {
-  const [{ loadParserSpecs }, { chooseParser }, { readLogLines }] = await Promise.all([
-    import('../parse/load-parser-specs.js'), import('../parse/choose-parser.js'), import('../parse/read-log-lines.js'),
+  const [{ loadParserSpecs }, { chooseParser }, { openLineSource }] = await Promise.all([
+    import('../parse/load-parser-specs.js'), import('../parse/choose-parser.js'), import('../ingest/open-line-source.js'),
   ]);
   const isFile = specArg.endsWith('.json') || isExistingFile(specArg);
   const specs = loadParserSpecs({ files: isFile ? [specArg] : [] });
@@ -78,10 +78,15 @@ async function testSpec(specArg: string, logs: readonly string[], overrides: { r
       tally.last = value;
     }
   });
-  await readLogLines(logs, {
+  // The same reader as every other command (gzip by magic bytes, CRLF, invalid UTF-8, stdin).
+  const warnings: string[] = [];
+  await openLineSource({ paths: logs, follow: false }).run({
     onLines: (lines) => { for (const line of lines) parser.pushLine(line); },
-    // The next file of a restart chain is a restart.
-    onFile: (_path, index) => { if (index > 0) parser.noteRestart(); },
+    onEvent: (event) => {
+      // The next file of a restart chain is a restart.
+      if (event.type === 'opened' && event.index > 0) parser.noteRestart();
+      if (event.type === 'warning') warnings.push(event.message);
+    },
   });
   parser.finish();
   const stats = parser.stats();
@@ -97,6 +102,7 @@ async function testSpec(specArg: string, logs: readonly string[], overrides: { r
     `records:   ${stats.records}${firstIteration !== undefined ? ` (first iteration ${firstIteration}, last ${lastIteration})` : ''}, ${stats.restarts} restart${stats.restarts === 1 ? '' : 's'}`,
   ];
   if (failure !== undefined) out.push(`failure:   ${failure}`);
+  for (const warning of warnings) out.push(`warning:   ${warning}`);
   if (tallies.size === 0) {
     out.push('series:    none: the spec matched no values in this log');
   } else {

@@ -1,7 +1,7 @@
 // End to end: the built CLI (run `npx tsc -p tsconfig.json` first; CI builds before testing).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 
@@ -108,5 +108,17 @@ describe('settle parsers test', () => {
     const missing = settle('parsers', 'test', 'settle-kv', join(dir, 'absent.log'));
     expect(missing.code).toBe(3);
     expect(missing.stderr).toContain('absent.log');
+  });
+});
+
+describe('settle parsers test reads logs like every other command', () => {
+  it('recognises gzip by its magic bytes, not its name (RFC 1952: 1f 8b)', () => {
+    const renamed = join(dir, 'healthy-without-extension');
+    writeFileSync(renamed, readFileSync(resolve('sample-logs/cavity-healthy.jsonl.gz')));
+    const { code, stdout } = settle('parsers', 'test', 'settle-jsonl', renamed);
+    expect(code).toBe(0);
+    const inspected = JSON.parse(settle('inspect', '--json', resolve('sample-logs/cavity-healthy.jsonl.gz')).stdout) as { records: number };
+    expect(stdout).toMatch(new RegExp(`records: +${inspected.records} `));
+    expect(stdout).toMatch(/lines: +\d+ read, 0 not matched/);
   });
 });
