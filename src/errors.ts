@@ -5,7 +5,7 @@
 
 export abstract class SettleError extends Error {
   abstract readonly code: string;
-  /** Process exit code for this failure (2 usage, 3 unreadable input). */
+  /** Process exit code for this failure (2 usage, 3 unreadable input, 4 output not written). */
   abstract readonly exitCode: number;
   constructor(message: string, readonly hint?: string) {
     super(message);
@@ -32,6 +32,14 @@ export class SpecError extends SettleError {
 export class InputError extends SettleError {
   readonly code = 'input';
   readonly exitCode = 3;
+}
+
+/** An output settle was asked to write (a report file) could not be written, after the input was
+ * read and judged. Exit code 4: not 2, which promises that nothing was read, and clear of the
+ * verdict codes (0, 10, 11, 20, 21, 30, 31), 3 (unreadable input) and 70 (internal error). */
+export class OutputError extends SettleError {
+  readonly code = 'output';
+  readonly exitCode = 4;
 }
 
 /** Cut a user's text (a line, a value) short for an error message, on one line, with control

@@ -12,7 +12,7 @@ import { constants as osConstants } from 'node:os';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import { EXIT_CODES, type RunDiagnosis } from '../analysis/diagnosis.js';
-import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
+import { addPollOption, addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { DEFAULT_MIN_ITERATIONS, readGateFlags, type GateSettings, type RawGateFlags } from '../gate/read-gate-flags.js';
@@ -20,6 +20,7 @@ import { checkProcessRunning, checkStopFile } from '../gate/check-gate-inputs.js
 import { checkJson } from '../gate/check-json.js';
 import { formatCheckText } from '../gate/format-check-text.js';
 import { worstVerdict } from '../gate/worst-verdict.js';
+import { EXEC_VARIABLE_MEANINGS, EXEC_VARIABLES } from '../gate/exec-variables.js';
 
 export interface RunCheckOptions extends RunReading {
   logs: string[];
@@ -103,15 +104,19 @@ export function registerCheckCommand(program: Command): void {
     .option('--pid <pid>', 'with --follow: stop when this process (the solver) ends')
     .option('--stop-file <path>', 'with --follow: write this file (atomically) with the verdict and reason when acting')
     .option('--signal <pid[:signal]>', 'with --follow: send a signal when acting (default SIGTERM), e.g. 4242:SIGUSR1')
-    .option('--exec <command>', 'with --follow: run this shell command when acting; it gets SETTLE_VERDICT, SETTLE_REASON, SETTLE_LOG, SETTLE_EXIT_CODE')
+    .option('--exec <command>', `with --follow: run this shell command when acting; its environment has ${EXEC_VARIABLES.join(', ')}`)
     .option('--on <verdicts>', 'with --follow: verdicts that trigger the actions, comma-separated (default: converged,stalled,oscillating,diverging,failed)')
     .option('--events', 'with --follow: write one JSON object per state change to stdout (NDJSON), the verdict last')
     .option('--min-iterations <n>', `with --follow: never act before this many iterations (default ${DEFAULT_MIN_ITERATIONS})`)
     .option('--dry-run', 'with --follow: say what would be done, do nothing');
+  addPollOption(command, 'with --follow: poll the log every ms (default 1000) instead of waiting for change events; for network file systems');
   addCriteriaOptions(addSourceOptions(command));
   command.addHelpText('after', `
 Exit codes: ${Object.entries(EXIT_CODES).map(([verdict, code]) => `${code} ${verdict}`).join(', ')};
-  2 usage error, 3 unreadable input. Several logs: the worst verdict decides.`);
+  2 usage error, 3 unreadable input. Several logs: the worst verdict decides.
+
+The --exec command's environment:
+${EXEC_VARIABLES.map((name) => `  ${name.padEnd(17)} ${EXEC_VARIABLE_MEANINGS[name]}`).join('\n')}`);
   command.action(async (logs: string[], flags: CheckFlags) => {
     const gate = readGateFlags(flags, logs, osConstants.signals);
     const common = {

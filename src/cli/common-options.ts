@@ -27,14 +27,30 @@ export function parsePositiveNumber(flag: string, value: string, { integer = fal
   return n;
 }
 
-/** --parser, --residual, --quantity, --poll: how a log is read and understood. */
+/** --parser, --residual, --quantity: how a log is read and understood. Polling is separate: only
+ * commands that follow a growing log offer it (addPollOption); the others refuse it (refusePollOption). */
 export function addSourceOptions(command: Command): Command {
   return command
     .addOption(new Option('--parser <spec>', 'parser spec file (JSON) or built-in spec id; repeatable').argParser(collect).default([]))
     .addOption(new Option('--residual <glob>', 'treat series matching this glob as residuals; repeatable').argParser(collect).default([]))
-    .addOption(new Option('--quantity <glob>', 'treat series matching this glob as monitored quantities; repeatable').argParser(collect).default([]))
-    .addOption(new Option('--poll [ms]', 'poll the file every ms (default 1000) instead of waiting for change events; for network file systems')
-      .argParser((v: string) => parsePositiveNumber('--poll', v, { integer: true })));
+    .addOption(new Option('--quantity <glob>', 'treat series matching this glob as monitored quantities; repeatable').argParser(collect).default([]));
+}
+
+/** --poll [ms], for commands that follow a growing log (watch; check, where it needs --follow). */
+export function addPollOption(command: Command, description = 'poll the file every ms (default 1000) instead of waiting for change events; for network file systems'): Command {
+  return command.addOption(new Option('--poll [ms]', description)
+    .argParser((v: string) => parsePositiveNumber('--poll', v, { integer: true })));
+}
+
+/** A hidden --poll for commands that read a log once to its end (report, inspect, compare): a
+ * post-mortem read never polls, so the flag is refused with a hint instead of being ignored. */
+export function refusePollOption(command: Command): Command {
+  command.addOption(new Option('--poll [ms]').hideHelp());
+  return command.hook('preAction', (self) => {
+    if (self.opts().poll === undefined) return;
+    throw new UsageError(`--poll has no effect on settle ${self.name()}: it reads each log once, to its end`,
+      'drop --poll; to follow a growing log, use settle watch --poll or settle check --follow --poll');
+  });
 }
 
 export function kindOverridesOf(options: SourceOptions): KindOverrides {

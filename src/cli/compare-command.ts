@@ -13,7 +13,7 @@ import type { Criteria } from '../analysis/criteria.js';
 import type { RunDiagnosis } from '../analysis/diagnosis.js';
 import { UsageError } from '../errors.js';
 import type { MeshStudy } from '../report/mesh-study.js';
-import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
+import { addSourceOptions, refusePollOption, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
@@ -67,7 +67,7 @@ export function registerCompareCommand(program: Command): void {
     .option('--dims <d>', 'dimensions of the grids: 2 or 3 (default 3)')
     .option('--json', 'print one JSON object')
     .option('--allow-unsettled', 'use the last value of a quantity that has not settled (and say so) instead of refusing');
-  addCriteriaOptions(addSourceOptions(command));
+  addCriteriaOptions(refusePollOption(addSourceOptions(command)));
   // The source option --quantity names the study's quantity here: reword its help, drop its default.
   const quantityOption = command.options.find((option) => option.long === '--quantity');
   if (quantityOption !== undefined) {

@@ -5,7 +5,7 @@
  */
 import { existsSync, statSync } from 'node:fs';
 import type { Command } from 'commander';
-import { addSourceOptions, kindOverridesOf, parserSelectionOf, pollMsOf, type SourceOptions } from './common-options.js';
+import { addSourceOptions, kindOverridesOf, parserSelectionOf, refusePollOption, type SourceOptions } from './common-options.js';
 import { DEFAULT_CRITERIA } from '../analysis/criteria.js';
 import { formatNumber, jsonNumber } from '../text/format-number.js';
 
@@ -28,7 +28,6 @@ export async function inspectLogs(paths: readonly string[], options: SourceOptio
   const monitor = createRunMonitor({
     paths,
     follow: false,
-    pollMs: pollMsOf(options),
     parserFiles: selection.files,
     parserId: selection.id,
     kindOverrides: kindOverridesOf(options),
@@ -104,13 +103,13 @@ function isFile(value: string): boolean {
 }
 
 export function registerInspectCommand(program: Command): void {
-  addSourceOptions(
+  refusePollOption(addSourceOptions(
     program
       .command('inspect')
       .description('show what settle reads from a log: parser, iterations, restarts and series (several logs = one run continued)')
       .argument('<log...>', 'log files in order (a restart chain), .gz allowed, or - for standard input')
       .option('--json', 'print one JSON object (a stable contract, see README)'),
-  ).action(async (paths: string[], options: SourceOptions & { json?: boolean }) => {
+  )).action(async (paths: string[], options: SourceOptions & { json?: boolean }) => {
     const summary = await inspectLogs(paths, options);
     process.stdout.write(options.json ? `${inspectJson(summary)}\n` : inspectText(paths, summary));
   });

@@ -6,16 +6,17 @@
  *
  * Output goes to stdout, or to the file `-o` names (never over one of the input logs). A big log
  * shows a progress bar on stderr while it is read, only when stderr is a terminal. The exit code is
- * 0 once the report is written, whatever the verdicts (use `settle check` for verdict codes).
+ * 0 once the report is written, whatever the verdicts (use `settle check` for verdict codes); 4
+ * (OutputError) when the -o file cannot be written after the logs were read.
  */
 import { realpathSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, extname, resolve } from 'node:path';
 import { Option, type Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
-import { UsageError } from '../errors.js';
+import { OutputError, UsageError } from '../errors.js';
 import { REPORT_FORMATS, type ReportFormat, type ReportRun } from '../report/report-input.js';
 import type { ProgressStream } from '../report/progress-bar.js';
-import { addSourceOptions, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
+import { addSourceOptions, refusePollOption, runReadingOf, type RunReading, type SourceOptions } from './common-options.js';
 import { checkLogsReadable, postMortemMonitor } from './read-run.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 
@@ -120,7 +121,8 @@ export async function runReport(options: RunReportOptions): Promise<void> {
     writeFileSync(options.output, text, 'utf8');
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code ?? 'error';
-    throw new UsageError(`cannot write ${options.output} (${code})`, code === 'EACCES' ? 'check the folder permissions or choose another path' : 'choose another path');
+    throw new OutputError(`cannot write ${options.output} (${code}); the logs were read, the report is not saved`,
+      code === 'EACCES' ? 'check the folder permissions or choose another path' : code === 'ENOSPC' ? 'free some disk space or choose another path' : 'choose another path');
   }
 }
 
@@ -134,7 +136,7 @@ export function registerReportCommand(program: Command): void {
     .argument('<log...>', 'log files (.gz allowed), or - for standard input; one section each')
     .addOption(new Option('--format <format>', 'text, md, html or json (default: from the -o extension, else text)'))
     .option('-o, --output <file>', 'write the report to this file instead of standard output');
-  addCriteriaOptions(addSourceOptions(command));
+  addCriteriaOptions(refusePollOption(addSourceOptions(command)));
   command.action(async (logs: string[], flags: ReportFlags) => {
     const format = reportFormatOf(flags.format, flags.output);
     await runReport({

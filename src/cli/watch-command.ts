@@ -8,7 +8,7 @@ import tty from 'node:tty';
 import type { Command } from 'commander';
 import type { Criteria } from '../analysis/criteria.js';
 import type { KindOverrides } from '../parse/record-parser.js';
-import { addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
+import { addPollOption, addSourceOptions, runReadingOf, type SourceOptions } from './common-options.js';
 import { addCriteriaOptions, criteriaFromOptions } from './criteria-options.js';
 import { SettleError, UsageError } from '../errors.js';
 
@@ -97,7 +97,7 @@ export function registerWatchCommand(program: Command): void {
     .command('watch')
     .description('live dashboard of a solver log: residuals, quantities, verdict and advice; several logs, a folder or a glob open an overview of runs')
     .argument('<log...>', 'log files, folders of logs, or quoted globs; - reads standard input');
-  addSourceOptions(command);
+  addPollOption(addSourceOptions(command));
   addCriteriaOptions(command);
   command.action(async (logs: string[], flags: SourceOptions & Record<string, unknown>) => {
     process.exitCode = await runWatch({ paths: logs, ...runReadingOf(flags), criteria: criteriaFromOptions(flags) });

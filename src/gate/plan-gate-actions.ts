@@ -16,6 +16,7 @@ import { FINAL_STATES, type RunDiagnosis, type State } from '../analysis/diagnos
 import { describeEnding, type GateEnding } from './gate-ending.js';
 import type { SignalTarget } from './parse-signal-target.js';
 import { stopFileText } from './stop-file-text.js';
+import type { ExecVariable } from './exec-variables.js';
 
 export interface GateRequest {
   /** The log as the user named it (reported in the stop file and SETTLE_LOG). */
@@ -83,18 +84,16 @@ export function planGateActions(diagnosis: RunDiagnosis, ending: GateEnding, req
   }
   if (request.signal !== undefined) actions.push({ kind: 'signal', pid: request.signal.pid, signal: request.signal.signal });
   if (request.exec !== undefined) {
-    actions.push({
-      kind: 'exec',
-      command: request.exec,
-      env: {
-        SETTLE_VERDICT: verdict,
-        SETTLE_REASON: reason,
-        SETTLE_ADVICE: diagnosis.advice,
-        SETTLE_LOG: request.log,
-        SETTLE_EXIT_CODE: String(diagnosis.exitCode),
-        SETTLE_ITERATION: Number.isFinite(diagnosis.iterations) ? String(diagnosis.iterations) : '',
-      },
-    });
+    // Typed by the one list of names (exec-variables.ts) the help text shows: none missing, none extra.
+    const env: Readonly<Record<ExecVariable, string>> = {
+      SETTLE_VERDICT: verdict,
+      SETTLE_REASON: reason,
+      SETTLE_ADVICE: diagnosis.advice,
+      SETTLE_LOG: request.log,
+      SETTLE_EXIT_CODE: String(diagnosis.exitCode),
+      SETTLE_ITERATION: Number.isFinite(diagnosis.iterations) ? String(diagnosis.iterations) : '',
+    };
+    actions.push({ kind: 'exec', command: request.exec, env });
   }
   return { ...base, act: true, why: `the verdict ${verdict} is one of --on ${[...request.on].join(',')}`, actions };
 }

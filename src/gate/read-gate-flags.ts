@@ -4,7 +4,7 @@
  * Pure: the platform's signal table is passed in, and the checks that need the system (is the
  * process running, is the folder writable) are in check-gate-inputs.ts. O(flags).
  *
- * Decisions: the action and follow flags need `--follow` (a post-mortem check acting on a finished
+ * Decisions: the action and follow flags (and --poll) need `--follow` (a post-mortem check acting on a finished
  * run would signal or stop a process that is not the run it read); `--follow` watches one run (start
  * one gate per run); `--events` owns standard output, so it does not mix with `--json`.
  */
@@ -31,6 +31,8 @@ export interface RawGateFlags {
   minIterations?: string;
   dryRun?: boolean;
   json?: boolean;
+  /** --poll, which only a followed log uses (ms, or true for the default). */
+  poll?: number | boolean;
 }
 
 export interface GateSettings {
@@ -47,7 +49,7 @@ export interface GateSettings {
 
 const FLAG_NAMES: readonly [keyof RawGateFlags, string][] = [
   ['idle', '--idle'], ['pid', '--pid'], ['stopFile', '--stop-file'], ['signal', '--signal'], ['exec', '--exec'],
-  ['on', '--on'], ['events', '--events'], ['minIterations', '--min-iterations'], ['dryRun', '--dry-run'],
+  ['on', '--on'], ['events', '--events'], ['minIterations', '--min-iterations'], ['dryRun', '--dry-run'], ['poll', '--poll'],
 ];
 
 /** Settings for a follow, or undefined for a plain post-mortem check (after refusing gate flags). */
@@ -56,7 +58,9 @@ export function readGateFlags(raw: RawGateFlags, logs: readonly string[], knownS
     const given = FLAG_NAMES.filter(([key]) => raw[key] !== undefined && raw[key] !== false).map(([, flag]) => flag);
     if (given.length > 0) {
       throw new UsageError(`${given.join(', ')} ${given.length === 1 ? 'works' : 'work'} only with --follow`,
-        'add --follow to watch the run and act once its verdict is final');
+        given.length === 1 && given[0] === '--poll'
+          ? 'drop --poll: a check without --follow reads each log once, to its end (or add --follow to watch a growing log)'
+          : 'add --follow to watch the run and act once its verdict is final');
     }
     return undefined;
   }
