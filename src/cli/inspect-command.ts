@@ -8,6 +8,7 @@ import type { Command } from 'commander';
 import { addSourceOptions, kindOverridesOf, parserSelectionOf, refusePollOption, type SourceOptions } from './common-options.js';
 import { DEFAULT_CRITERIA } from '../analysis/criteria.js';
 import { formatNumber, jsonNumber } from '../text/format-number.js';
+import { formatCount } from '../text/format-count.js';
 
 export interface InspectSummary {
   readonly parser: string;
@@ -75,7 +76,7 @@ export function inspectText(paths: readonly string[], summary: InspectSummary): 
   const lines = [
     `log:       ${paths.join(' + ')}`,
     `parser:    ${summary.explanation}`,
-    `records:   ${plural(summary.records, 'record')}${summary.records > 0 ? ` (last iteration ${summary.lastIteration})` : ''}`
+    `records:   ${plural(summary.records, 'record')}${summary.records > 0 ? ` (last iteration ${formatCount(summary.lastIteration)})` : ''}`
       + (summary.restarts > 0 ? `, ${plural(summary.restarts, 'restart')}` : ''),
   ];
   if (summary.timeSteps !== undefined) {
@@ -87,7 +88,7 @@ export function inspectText(paths: readonly string[], summary: InspectSummary): 
     const width = Math.max(6, ...summary.series.map((s) => s.name.length));
     lines.push('', `  ${'series'.padEnd(width)}  ${'kind'.padEnd(8)}  ${'count'.padStart(9)}  ${'first'.padStart(11)}  ${'last'.padStart(11)}  unit`);
     for (const s of summary.series) {
-      lines.push(`  ${s.name.padEnd(width)}  ${s.kind.padEnd(8)}  ${String(s.count).padStart(9)}  ${formatNumber(s.first).padStart(11)}  ${formatNumber(s.last).padStart(11)}  ${s.unit ?? ''}`.trimEnd());
+      lines.push(`  ${s.name.padEnd(width)}  ${s.kind.padEnd(8)}  ${formatCount(s.count).padStart(9)}  ${formatNumber(s.first).padStart(11)}  ${formatNumber(s.last).padStart(11)}  ${s.unit ?? ''}`.trimEnd());
     }
   }
   for (const warning of summary.warnings) lines.push(`warning:   ${warning}`);
@@ -95,7 +96,7 @@ export function inspectText(paths: readonly string[], summary: InspectSummary): 
 }
 
 function plural(count: number, word: string): string {
-  return `${count} ${word}${count === 1 ? '' : 's'}`;
+  return `${formatCount(count)} ${word}${count === 1 ? '' : 's'}`;
 }
 
 function isFile(value: string): boolean {

@@ -4,7 +4,7 @@
  * Pure; O(series).
  *
  * @example
- * solver.log: converged (exit 0) at iteration 1840
+ * solver.log: converged (exit 0) at iteration 1 840
  *   advice: stop: all residuals 3 orders down
  *   why:    res_p down 3.1 decades from its peak
  *
@@ -14,6 +14,7 @@
  */
 import { EXIT_CODES, type RunDiagnosis, type SeriesDiagnosis } from '../analysis/diagnosis.js';
 import { formatNumber } from '../text/format-number.js';
+import { formatCount, formatEstimate } from '../text/format-count.js';
 import { worstVerdict } from './worst-verdict.js';
 
 /** Key figures of one series, comma-separated (empty when the analysis gave none). */
@@ -25,7 +26,7 @@ export function seriesFigures(series: SeriesDiagnosis): string {
     parts.push(rate === 0 ? 'flat' : `${rate > 0 ? 'falling' : 'rising'} ${formatNumber(Math.abs(rate), 2)} decades/1000 it`);
   }
   if (series.rho !== undefined) parts.push(`rho ${formatNumber(series.rho, 6)}`);
-  if (series.eta !== undefined && series.eta > 0) parts.push(Number.isFinite(series.eta) ? `about ${Math.round(series.eta)} it to target` : 'target out of reach at this rate');
+  if (series.eta !== undefined && series.eta > 0) parts.push(Number.isFinite(series.eta) ? `about ${formatEstimate(series.eta)} it to target` : 'target out of reach at this rate');
   if (series.period !== undefined) parts.push(`period ${formatNumber(series.period, 3)} it`);
   if (series.amplitudeDecades !== undefined) parts.push(`amplitude ${formatNumber(series.amplitudeDecades, 2)} decades`);
   if (series.amplitudeRelative !== undefined) parts.push(`amplitude ${formatNumber(series.amplitudeRelative * 100, 2)} %`);
@@ -37,7 +38,7 @@ export function seriesFigures(series: SeriesDiagnosis): string {
 }
 
 export function formatRunText(log: string, diagnosis: RunDiagnosis): string {
-  const at = diagnosis.records > 0 && Number.isFinite(diagnosis.iterations) ? `at iteration ${diagnosis.iterations}` : 'with no iterations read';
+  const at = diagnosis.records > 0 && Number.isFinite(diagnosis.iterations) ? `at iteration ${formatCount(diagnosis.iterations)}` : 'with no iterations read';
   const lines = [`${log}: ${diagnosis.verdict} (exit ${diagnosis.exitCode}) ${at}`, `  advice: ${diagnosis.advice}`];
   diagnosis.reasons.forEach((reason, index) => lines.push(`  ${index === 0 ? 'why:   ' : '       '} ${reason}`));
   if (diagnosis.series.length > 0) {

@@ -17,6 +17,7 @@ import { describeEnding, type GateEnding } from './gate-ending.js';
 import type { SignalTarget } from './parse-signal-target.js';
 import { stopFileText } from './stop-file-text.js';
 import type { ExecVariable } from './exec-variables.js';
+import { formatCount } from '../text/format-count.js';
 
 export interface GateRequest {
   /** The log as the user named it (reported in the stop file and SETTLE_LOG). */
@@ -66,7 +67,7 @@ export function planGateActions(diagnosis: RunDiagnosis, ending: GateEnding, req
 
   if (!wanted) return none('no action was asked for (--stop-file, --signal, --exec)');
   if (!(diagnosis.iterations >= request.minIterations)) {
-    const seen = Number.isFinite(diagnosis.iterations) ? `${diagnosis.iterations} iterations` : 'no iterations';
+    const seen = Number.isFinite(diagnosis.iterations) ? `${formatCount(diagnosis.iterations)} iterations` : 'no iterations';
     return none(`only ${seen} logged, fewer than --min-iterations ${request.minIterations}`);
   }
   if (!request.on.has(verdict)) return none(`the verdict ${verdict} is not one of --on ${[...request.on].join(',')}`);

@@ -1,5 +1,6 @@
 /** A mesh study as text or JSON (settle compare). Pure. */
 import { formatNumber, jsonNumber } from '../text/format-number.js';
+import { formatCount } from '../text/format-count.js';
 import type { MeshStudy } from './mesh-study.js';
 import { textTable } from './render-text-report.js';
 
@@ -11,7 +12,7 @@ export function renderMeshStudyText(study: MeshStudy): string {
   const g = study.gci;
   const out = [`Mesh study of ${study.quantity} (${study.dimensions}-D grids; Celik et al. 2008)`, ''];
   out.push(...textTable(['grid', 'log', 'cells', 'h', 'value', 'taken from', 'state', 'iteration error'],
-    study.grids.map((grid, i) => [grid.role, grid.log, grid.cells.toLocaleString('en-US'), formatNumber(g.cellSizes[i]), formatNumber(grid.value, 7), grid.source, grid.state,
+    study.grids.map((grid, i) => [grid.role, grid.log, formatCount(grid.cells), formatNumber(g.cellSizes[i]), formatNumber(grid.value, 7), grid.source, grid.state,
       grid.iterationError === undefined ? '—' : formatNumber(grid.iterationError, 3)])), '');
   const row = (label: string, value: string): string => `${label.padEnd(30)}${value}`;
   out.push(row('refinement ratios', `r21 = ${formatNumber(g.r21)}, r32 = ${formatNumber(g.r32)}`));

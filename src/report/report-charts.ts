@@ -9,6 +9,7 @@ import type { SeriesColumn } from '../series/series-column.js';
 import type { ReportRun } from './report-input.js';
 import { renderLineChartSvg, type ChartBand, type ChartRule } from './svg-line-chart.js';
 import { formatNumber } from '../text/format-number.js';
+import { formatCount } from '../text/format-count.js';
 
 export interface ReportChart {
   readonly title: string;
@@ -77,7 +78,7 @@ export function reportCharts(run: ReportRun, runIndex: number, width = 760): Rep
     }
     const name = c.info.label ?? c.info.name;
     const title = `${name} — ${run.log}`;
-    const description = `${name} against iteration${bands.length ? `, with its settled mean and 95 % confidence band from iteration ${formatNumber(bands[0].fromX)}` : ' (not settled: no band)'}.`;
+    const description = `${name} against iteration${bands.length ? `, with its settled mean and 95 % confidence band from iteration ${formatCount(bands[0].fromX)}` : ' (not settled: no band)'}.`;
     const yLabel = c.info.unit ? `${name} [${c.info.unit}]` : name;
     charts.push({
       title, description,
@@ -93,7 +94,7 @@ export function reportCharts(run: ReportRun, runIndex: number, width = 760): Rep
       while (from < c.length && c.iterations[from] < band.fromX) from++;
       if (c.length - from >= 2) {
         const zoomTitle = `${name}, settled part — ${run.log}`;
-        const zoomDescription = `${name} from iteration ${formatNumber(band.fromX)} on, with its settled mean and 95 % confidence band.`;
+        const zoomDescription = `${name} from iteration ${formatCount(band.fromX)} on, with its settled mean and 95 % confidence band.`;
         charts.push({
           title: zoomTitle, description: zoomDescription,
           svg: renderLineChartSvg({

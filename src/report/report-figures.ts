@@ -6,6 +6,10 @@ import type { Criteria } from '../analysis/criteria.js';
 import { SEVERITY, type RunDiagnosis, type SeriesDiagnosis, type State } from '../analysis/diagnosis.js';
 import type { RunSnapshot } from '../series/series-column.js';
 import { formatNumber } from '../text/format-number.js';
+import { formatCount, formatEstimate } from '../text/format-count.js';
+
+/** Counts print as in every text settle writes (src/text/format-count.ts): "2 880". */
+export { formatCount };
 
 export const num = (value: number | undefined, digits = 4): string => (value === undefined ? '' : formatNumber(value, digits));
 
@@ -22,10 +26,6 @@ export function verdictLine(d: RunDiagnosis): string {
   return `${d.verdict}${d.final ? ' (final)' : ' (not final)'} after ${formatCount(d.iterations)} iterations (${formatCount(d.records)} records)`;
 }
 
-export function formatCount(n: number): string {
-  return Number.isFinite(n) ? Math.round(n).toLocaleString('en-US') : String(n);
-}
-
 export function restartsLine(snapshot: RunSnapshot): string {
   const r = snapshot.restarts;
   if (r.length === 0) return 'none';
@@ -37,8 +37,8 @@ export function criteriaLine(c: Criteria): string {
   const parts = [`residuals down ${c.drop} decades from their peak`];
   if (c.target !== undefined) parts.push(`or below ${formatNumber(c.target)}`);
   parts.push(`quantities settled to ${formatNumber(c.qoiTol * 100)} % (95 % half-width)`);
-  parts.push(`trend window ${c.window} iterations`);
-  parts.push(`first ${c.startup} iterations not judged`);
+  parts.push(`trend window ${formatCount(c.window)} iterations`);
+  parts.push(`first ${formatCount(c.startup)} iterations not judged`);
   if (c.series.length > 0) parts.push(`judged series: ${c.series.join(', ')}`);
   if (c.perSeries.length > 0) parts.push(`${c.perSeries.length} per-series override${c.perSeries.length === 1 ? '' : 's'}`);
   return parts.join('; ');
@@ -60,7 +60,7 @@ export function residualRow(s: SeriesDiagnosis): ResidualRow {
   return {
     name: displayName(s), state: s.state, last: num(s.last), rho: s.rho === undefined ? '' : s.rho.toFixed(5),
     ordersPerKilo: num(s.ordersPerKilo, 3), drop: num(s.dropDecades, 3), target: num(s.target),
-    eta: s.eta === undefined ? '' : Number.isFinite(s.eta) ? formatCount(s.eta) : '—', oscillation: oscillationOf(s),
+    eta: s.eta === undefined ? '' : Number.isFinite(s.eta) ? formatEstimate(s.eta) : '—', oscillation: oscillationOf(s),
   };
 }
 

@@ -53,6 +53,8 @@ describe('settle check refuses bad input with one line and a hint', () => {
     ['--pid and --stop-file without --follow', async () => [log, '--pid', String(process.pid), '--stop-file', join(dir, 'S')], /^settle: --pid, --stop-file work only with --follow$/],
     ['--exec, --on, --idle, --events, --dry-run, --min-iterations without --follow',
       async () => [log, '--exec', 'true', '--on', 'converged', '--idle', '1s', '--events', '--dry-run', '--min-iterations', '5'], /work only with --follow$/],
+    ['--poll without --follow (a post-mortem read never polls)', async () => [log, '--poll'], /^settle: --poll works only with --follow$/],
+    ['--poll 500 without --follow', async () => [log, '--poll', '500'], /^settle: --poll works only with --follow$/],
     ['a signal name that does not exist', async () => [log, '--follow', '--signal', `${process.pid}:SIGNOTHING`], /signal that does not exist: 'SIGNOTHING'/],
     ['a signal number instead of a name', async () => [log, '--follow', '--signal', `${process.pid}:9`], /signal that does not exist/],
     ['a --signal process that is not running', async () => [log, '--follow', '--signal', String(await deadPid())], /--signal: no process \d+ is running/],
@@ -90,5 +92,17 @@ describe('settle check refuses bad input with one line and a hint', () => {
     await refuse([log, '--follow', '--stop-file', log]);
     await refuse([log, '--follow', '--idle', 'soon', '--stop-file', join(dir, 'STOP')]);
     expect(readdirSync(dir)).toEqual(['run.log']);
+  });
+});
+
+describe('settle check --poll', () => {
+  it('hints to drop --poll (not to add --follow) when it is the only follow flag', async () => {
+    const { stderr } = await refuse([log, '--poll', '250']);
+    expect(stderr).toMatch(/hint: drop --poll: a check without --follow reads each log once, to its end/);
+  });
+
+  it('is accepted with --follow (refused here only for the bad signal that follows it)', async () => {
+    const { stderr } = await refuse([log, '--follow', '--poll', '250', '--signal', `${process.pid}:SIGNOTHING`]);
+    expect(stderr).toMatch(/signal that does not exist/);
   });
 });

@@ -13,7 +13,7 @@ describe('check text', () => {
       ],
     }));
     const lines = text.split('\n');
-    expect(lines[0]).toBe('case/solver.log: converged (exit 0) at iteration 1840');
+    expect(lines[0]).toBe('case/solver.log: converged (exit 0) at iteration 1 840');
     expect(lines[1]).toBe('  advice: stop: all residuals 3 orders down');
     expect(lines[2]).toBe('  why:    res_p down 3.2 decades from its peak');
     expect(lines[3]).toBe('          cd settled at 0.3312 ± 0.0004');
@@ -25,7 +25,11 @@ describe('check text', () => {
   it('names figures of cycles, time to target and iteration error', () => {
     expect(seriesFigures(makeSeries({ name: 'r', period: 37, amplitudeDecades: 0.81 }))).toBe('period 37 it, amplitude 0.81 decades');
     expect(seriesFigures(makeSeries({ name: 'q', kind: 'quantity', period: 120, amplitudeRelative: 0.012 }))).toBe('period 120 it, amplitude 1.2 %');
-    expect(seriesFigures(makeSeries({ name: 'r', eta: 2290.4 }))).toBe('about 2290 it to target');
+    // Estimates to two significant figures with space-grouped digits, the style of the analysis's
+    // reasons (src/analysis/format-figures.ts: "about 340 000 iterations").
+    expect(seriesFigures(makeSeries({ name: 'r', eta: 2290.4 }))).toBe('about 2 300 it to target');
+    expect(seriesFigures(makeSeries({ name: 'r', eta: 343462 }))).toBe('about 340 000 it to target');
+    expect(seriesFigures(makeSeries({ name: 'r', eta: 87.4 }))).toBe('about 87 it to target');
     expect(seriesFigures(makeSeries({ name: 'q', kind: 'quantity', mean: 2.243, iterationError: 3.1e-6 }))).toBe('mean 2.243, iteration error 3.1e-6');
     expect(seriesFigures(makeSeries({ name: 'r' }))).toBe('');
     expect(seriesFigures(makeSeries({ name: 'r', ordersPerKilo: -46 }))).toBe('rising 46 decades/1000 it');

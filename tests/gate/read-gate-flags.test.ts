@@ -28,6 +28,8 @@ describe('readGateFlags', () => {
     ['--stop-file without --follow', { stopFile: 'STOP' }, ['a.log'], /--stop-file works only with --follow/],
     ['--signal and --pid without --follow', { signal: '42', pid: '42' }, ['a.log'], /--pid, --signal work only with --follow/],
     ['--dry-run without --follow', { dryRun: true }, ['a.log'], /--dry-run works only with --follow/],
+    ['--poll without --follow (a post-mortem read never polls)', { poll: true }, ['a.log'], /--poll works only with --follow/],
+    ['--poll 500 without --follow', { poll: 500 }, ['a.log'], /--poll works only with --follow/],
     ['--follow on two logs', { follow: true }, ['a.log', 'b.log'], /one run, got 2 logs/],
     ['--events with --json', { follow: true, events: true, json: true }, ['a.log'], /--events and --json/],
     ['an empty --exec', { follow: true, exec: '  ' }, ['a.log'], /--exec needs a command/],
