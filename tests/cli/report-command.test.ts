@@ -1,6 +1,6 @@
 /** `settle report` end to end: the built CLI on settle-kv logs written to a temp folder. */
 import { afterAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli, steadyRunLog } from '../report/run-cli.js';
@@ -22,6 +22,8 @@ describe('settle report', () => {
     expect(result.stdout).toContain(`== ${logB} ==`);
     expect(result.stdout).toMatch(/parser: +spec settle-kv/);
     expect(result.stdout).toMatch(/restarts: +1 \(at iteration 650\)/);
+    // Counts as the reasons print them (src/text/format-count.ts): grouped by a space, not a comma.
+    expect(result.stdout).toMatch(/verdict: +converging \(not final\) after 1 200 iterations \(1 250 records\)/);
     expect(result.stdout).toMatch(/nu_hot +converged +2\.243/);
     expect(result.stdout.trimEnd()).toMatch(/licensed professional practice\.$/);
   });
@@ -82,5 +84,14 @@ describe('settle report', () => {
     expect(result.stderr).toMatch(/hint:/);
     expect(result.stderr).not.toMatch(/\n\s+at /); // no stack trace
     expect(readFileSync(logA, 'utf8')).toBe(before);
+  });
+
+  // /dev/full accepts the open and fails every write with ENOSPC (Linux null(4)/full(4) man page,
+  // from memory): a write failure after the logs were read, which is not a usage error.
+  it.skipIf(!existsSync('/dev/full'))('says so with exit 4 when the report cannot be written after reading', async () => {
+    const result = await runCli(['report', logA, '-o', '/dev/full']);
+    expect(result.code).toBe(4);
+    expect(result.stderr).toBe('settle: cannot write /dev/full (ENOSPC); the logs were read, the report is not saved\n  hint: free some disk space or choose another path\n');
+    expect(result.stdout).toBe('');
   });
 });
