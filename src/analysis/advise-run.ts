@@ -89,7 +89,7 @@ export function adviseRun(verdict: State, counted: readonly CountedSeries[], fai
         const allByDrop = residuals.every((r) => (r.diagnosis.dropDecades ?? 0) >= r.rule.drop);
         const least = Math.min(...residuals.map((r) => r.diagnosis.dropDecades ?? 0));
         const subject = residuals.length === 1 ? residuals[0].diagnosis.name : 'all residuals';
-        parts.push(allByDrop ? `${subject} ${formatDecades(Math.floor(least * 10) / 10)} orders down` : `${subject} at ${residuals.length === 1 ? 'its target' : 'their targets'}`);
+        parts.push(allByDrop ? `${subject} ${formatDecades(least)} decades down` : `${subject} at ${residuals.length === 1 ? 'its target' : 'their targets'}`);
       }
       if (quantities.length > 0) parts.push(settledSummary(quantities));
       return { advice: `stop: ${parts.join(' and ')}`, reasons };

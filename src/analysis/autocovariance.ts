@@ -8,15 +8,15 @@
  * Math. Comp. 19:297–301, for the radix-2 FFT). Below 1 536 points the direct sums are as cheap in practice (measured with the analysis bench) and
  * are used instead. The FFT result agrees with the direct sums to rounding (about 1e-13 relative to
  * c(0)).
- * Scratch buffers are kept between calls (module-level, reused, never shared with callers) so a
- * scheduled evaluation allocates nothing here; the result is a fresh array.
+ * `scratch`: the caller's working arrays (analysis-scratch.ts), so a scheduled evaluation allocates
+ * only the result here; without it the FFT arrays are fresh. The result is always a fresh array.
  * Cost: O(n log n) (FFT) or O(n · maxLag) (direct).
  */
-const FFT_FROM = 1536;
-let re = new Float64Array(0);
-let im = new Float64Array(0);
+import { scratchView, type AnalysisScratch } from './analysis-scratch.js';
 
-export function autocovariance(d: ArrayLike<number>, maxLag: number): Float64Array {
+const FFT_FROM = 1536;
+
+export function autocovariance(d: ArrayLike<number>, maxLag: number, scratch?: AnalysisScratch): Float64Array {
   const n = d.length;
   const lags = Math.max(0, Math.min(maxLag, n - 1));
   const out = new Float64Array(lags + 1);
@@ -31,10 +31,8 @@ export function autocovariance(d: ArrayLike<number>, maxLag: number): Float64Arr
   }
   let size = 1;
   while (size < 2 * n) size <<= 1;
-  if (re.length !== size) {
-    re = new Float64Array(size);
-    im = new Float64Array(size);
-  }
+  const re = scratchView(scratch?.fftReal, size);
+  const im = scratchView(scratch?.fftImaginary, size);
   for (let i = 0; i < size; i++) {
     re[i] = i < n ? d[i] : 0;
     im[i] = 0;

@@ -14,9 +14,8 @@
  * callers bound n (the run judge uses at most 2 048).
  */
 import { autocovariance } from './autocovariance.js';
-import { ScratchBuffer } from './scratch-buffer.js';
+import { scratchView, type AnalysisScratch } from './analysis-scratch.js';
 
-const detrended = new ScratchBuffer();
 export interface Oscillation {
   /** Period in samples (fractional). */
   readonly period: number;
@@ -30,7 +29,9 @@ export interface Oscillation {
   readonly periods: number;
 }
 
-export function detectOscillation(values: ArrayLike<number>, from: number, to: number, minPeak = 0.3): Oscillation | null {
+/** `scratch`: the caller's working arrays (analysis-scratch.ts); without it, fresh arrays are used. */
+export function detectOscillation(values: ArrayLike<number>, from: number, to: number, minPeak = 0.3,
+  scratch?: AnalysisScratch): Oscillation | null {
   const n = to - from;
   if (n < 24) return null;
   // Detrend by least squares.
@@ -42,7 +43,7 @@ export function detectOscillation(values: ArrayLike<number>, from: number, to: n
   }
   const slope = (n * sxy - sx * sy) / (n * sxx - sx * sx);
   const intercept = (sy - slope * sx) / n;
-  const d = detrended.view(n);
+  const d = scratchView(scratch?.detrended, n);
   let variance = 0;
   let scale = 0;
   for (let i = 0; i < n; i++) {
@@ -53,7 +54,7 @@ export function detectOscillation(values: ArrayLike<number>, from: number, to: n
   // A series that is a straight line to rounding has nothing periodic in it.
   if (variance <= n * (1e-12 * Math.max(scale, 1e-300)) ** 2) return null;
   const maxLag = Math.floor(n / 3);
-  const acf = autocovariance(d, Math.min(maxLag + 1, n - 1));
+  const acf = autocovariance(d, Math.min(maxLag + 1, n - 1), scratch);
   for (let k = 0; k < acf.length; k++) acf[k] /= variance;
   let wentNegative = false;
   for (let k = 1; k <= maxLag; k++) {

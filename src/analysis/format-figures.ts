@@ -34,17 +34,23 @@ export function formatResidual(value: number): string {
   return `${mantissa}e${Number(exponent)}`;
 }
 
-/** Decades with one decimal: 3.24 → "3.2". */
+/** Decades with one decimal, rounded down (toward −∞): 3.24 → "3.2", 5.96 → "5.9". Rounding down
+ * means a printed figure never crosses a threshold the value has not crossed (a drop of 2.96 of 3
+ * decades reads "2.9", not "3"); every analysis text prints decades this way. A millionth of a tenth
+ * is forgiven so that binary rounding (0.3 stored as 0.29999…) does not lose a tenth. */
 export function formatDecades(value: number): string {
-  return (Math.round(value * 10) / 10).toFixed(1).replace(/\.0$/, '');
+  if (!Number.isFinite(value)) return String(value);
+  const tenths = Math.floor(value * 10 + 1e-6);
+  return (tenths / 10).toFixed(1).replace(/\.0$/, '').replace(/^-0$/, '0');
 }
 
-/** A value to four significant figures ("0.3312", "1.204e+5" when very large or small). */
+/** A value to four significant figures ("0.3312", "1204"); at or above a million or below 1e-4 in
+ * the short scientific form of formatResidual ("1.2e6", "3.0e-5"). */
 export function formatValue(value: number): string {
   if (!Number.isFinite(value)) return formatResidual(value);
   if (value === 0) return '0';
   const magnitude = Math.abs(value);
-  if (magnitude >= 1e6 || magnitude < 1e-4) return formatResidual(value).replace(/e/, 'e');
+  if (magnitude >= 1e6 || magnitude < 1e-4) return formatResidual(value);
   return String(Number(value.toPrecision(4)));
 }
 

@@ -33,6 +33,7 @@
 import type { SeriesDiagnosis, State } from './diagnosis.js';
 import type { SeriesInfo } from '../parse/log-record.js';
 import { mserTruncation } from './mser-truncation.js';
+import type { AnalysisScratch } from './analysis-scratch.js';
 import { batchMeansInterval, intervalOfMeans, studentTQuantile } from './batch-means-interval.js';
 import { geometricIterationError } from './geometric-iteration-error.js';
 import { detectOscillation } from './detect-oscillation.js';
@@ -69,10 +70,11 @@ export interface QuantitySamples {
 export const DEFAULT_QUANTITY_WINDOW = 200;
 
 /** `cycleClock`: where the judge keeps the last no-cycle result of this series (cycle-test-memo.ts);
- * without it the steady-state cycle test (step 5) runs whenever the quantity visibly varies. */
+ * without it the steady-state cycle test (step 5) runs whenever the quantity visibly varies.
+ * `scratch`: the judge's working arrays (analysis-scratch.ts); without it, fresh arrays are used. */
 export function judgeQuantity(samples: QuantitySamples, qoiTol: number, window = DEFAULT_QUANTITY_WINDOW,
-  cycleClock?: CycleTestClock): SeriesDiagnosis {
-  const judged = judgeByStatistics(samples, qoiTol, cycleClock);
+  cycleClock?: CycleTestClock, scratch?: AnalysisScratch): SeriesDiagnosis {
+  const judged = judgeByStatistics(samples, qoiTol, cycleClock, scratch);
   if (judged.state !== 'converging' || judged.period !== undefined) return judged;
   return settledByRemainingChange(samples, qoiTol, window) ?? judged;
 }
@@ -110,7 +112,8 @@ function settledByRemainingChange(samples: QuantitySamples, qoiTol: number, wind
   };
 }
 
-function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock: CycleTestClock | undefined): SeriesDiagnosis {
+function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock: CycleTestClock | undefined,
+  scratch: AnalysisScratch | undefined): SeriesDiagnosis {
   const { info } = samples;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last: samples.last };
   const with_ = (state: State, reason: string, extra: Partial<SeriesDiagnosis> = {}): SeriesDiagnosis => ({ ...base, state, reason, ...extra });
@@ -136,11 +139,11 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock:
   const unitWord = samples.transient ? 'time steps' : 'iterations';
 
   if (samples.transient) {
-    const periodic = judgePeriodicTransient(samples, from, qoiTol);
+    const periodic = judgePeriodicTransient(samples, from, qoiTol, scratch);
     if (periodic !== null) return periodic;
   }
 
-  const mser = mserTruncation(values, from, n);
+  const mser = mserTruncation(values, from, n, undefined, scratch);
   if (mser === null || !mser.settled) {
     return with_('converging', `${info.name} still moving: no steady part yet`, geometricFields(values, n, qoiTol));
   }
@@ -158,7 +161,7 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock:
   if (sd > allowed && n - keptFrom >= 48) {
     const cycleFrom = Math.max(keptFrom, n - CYCLE_POINTS);
     const skip = noCycleStillHolds(cycleClock, n - cycleFrom);
-    const cycle = skip ? null : detectOscillation(values, cycleFrom, n);
+    const cycle = skip ? null : detectOscillation(values, cycleFrom, n, undefined, scratch);
     if (!skip) recordCycleTest(cycleClock, cycle !== null);
     if (cycle !== null) {
       const spacing = (lastIteration - iterations[cycleFrom]) / Math.max(1, n - 1 - cycleFrom);
@@ -211,7 +214,7 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock:
  * not change by more than that from period to period. Returns null when no
  * cycle larger than the tolerance shows (the steady-state rules then apply).
  */
-function judgePeriodicTransient(samples: QuantitySamples, from: number, qoiTol: number): SeriesDiagnosis | null {
+function judgePeriodicTransient(samples: QuantitySamples, from: number, qoiTol: number, scratch: AnalysisScratch | undefined): SeriesDiagnosis | null {
   const { info, values, iterations } = samples;
   const n = values.length;
   // The start-up transient can hide the cycle from the autocorrelation: also try without the first
@@ -221,7 +224,7 @@ function judgePeriodicTransient(samples: QuantitySamples, from: number, qoiTol: 
   let cycleFrom = first;
   for (const skip of [0, 0.25, 0.5]) {
     cycleFrom = first + Math.floor(skip * (n - first));
-    cycle = detectOscillation(values, cycleFrom, n);
+    cycle = detectOscillation(values, cycleFrom, n, undefined, scratch);
     if (cycle !== null) break;
   }
   if (cycle === null) return null;

@@ -36,7 +36,8 @@ import { theilSenSlope } from './theil-sen-slope.js';
 import { detectOscillation } from './detect-oscillation.js';
 import { noCycleStillHolds, recordCycleTest, type CycleTestClock } from './cycle-test-memo.js';
 import { formatCount, formatDecades, formatEstimate, formatResidual } from './format-figures.js';
-import { ScratchBuffer } from './scratch-buffer.js';
+import type { ScratchBuffer } from './scratch-buffer.js';
+import { createAnalysisScratch, type AnalysisScratch } from './analysis-scratch.js';
 
 /** A rise of this many decades above the window's minimum is a divergence jump (common practice). */
 export const JUMP_DECADES = 3;
@@ -47,21 +48,16 @@ export const USEFUL_FACTOR = 100;
 /** Most points given to the cycle test. */
 export const OSCILLATION_POINTS = 1024;
 
-// Working arrays reused between evaluations (scratch-buffer.ts): never kept past one call.
-const recentScratch = new ScratchBuffer();
-const windowScratch = new ScratchBuffer();
-const cycleScratch = new ScratchBuffer();
-const deviationScratch = new ScratchBuffer();
-
 export interface ResidualJudgeOptions {
   readonly window: number;
   readonly startup: number;
 }
 
 /** `cycleClock`: where the judge keeps the last no-cycle result of this series (cycle-test-memo.ts);
- * without it the cycle test runs whenever its guard lets it. */
+ * without it the cycle test runs whenever its guard lets it. `scratch`: the judge's working arrays
+ * (analysis-scratch.ts); without it, this call makes its own. */
 export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, options: ResidualJudgeOptions,
-  cycleClock?: CycleTestClock): SeriesDiagnosis {
+  cycleClock?: CycleTestClock, scratch: AnalysisScratch = createAnalysisScratch()): SeriesDiagnosis {
   const { info } = column;
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last };
@@ -82,7 +78,7 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
     for (let i = from; i < to; i++) out[i - from] = safeLog10(column.values[i]);
     return out;
   };
-  const recent = logs(Math.max(segmentStart, end - 5), end, recentScratch).sort();
+  const recent = logs(Math.max(segmentStart, end - 5), end, scratch.recentLogs).sort();
   const nowLog = recent[recent.length >> 1];
   const peakLog = memo.peakLog;
   const dropDecades = peakLog - nowLog;
@@ -98,17 +94,19 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   // last five values (the residual is blowing up right now), falling "below the peak" means nothing.
   const peakIsRecent = !(memo.peakIteration < column.iterations[Math.max(segmentStart, end - 5)]);
   const windowFrom = Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1));
-  const windowLogs = logs(windowFrom, end, windowScratch);
+  const windowLogs = logs(windowFrom, end, scratch.windowLogs);
   if (nowLog <= levelLog && !peakIsRecent) {
     const why = rule.target !== undefined && nowLog <= safeLog10(rule.target) && dropDecades < rule.drop
       ? `below the target ${formatResidual(rule.target)}`
       : `${formatDecades(dropDecades)} decades below its peak`;
-    return with_('converged', `${info.name} ${why}`, { ...common, ...trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, true) });
+    // With fewer than two points in the window there is no trend: the rates are left out, not NaN.
+    const reached = trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, true, scratch)?.fields ?? { eta: 0 };
+    return with_('converged', `${info.name} ${why}`, { ...common, ...reached });
   }
 
-  if (end - windowFrom < 5) return with_('undecided', `too few points in the last ${formatCount(options.window)} iterations`, common);
-  const trend = trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, false);
-  const slope = Math.log10(trend.rho);
+  const trend = end - windowFrom < 5 ? null : trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, false, scratch);
+  if (trend === null) return with_('undecided', `too few points in the last ${formatCount(options.window)} iterations`, common);
+  const slope = trend.slope;
   let minLog = Number.POSITIVE_INFINITY;
   let minAt = windowFrom;
   for (let i = 0; i < windowLogs.length; i++) {
@@ -120,12 +118,12 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   const rise = nowLog - minLog;
   if (rise >= JUMP_DECADES) {
     const span = lastIteration - column.iterations[minAt];
-    return with_('diverging', `${info.name} grew ${formatDecades(rise)} decades in ${formatCount(span)} iterations`, { ...common, ...trend });
+    return with_('diverging', `${info.name} grew ${formatDecades(rise)} decades in ${formatCount(span)} iterations`, { ...common, ...trend.fields });
   }
   const windowSpan = lastIteration - column.iterations[windowFrom];
   const trendRise = slope * windowSpan;
   if (trendRise >= GROWTH_DECADES && end - windowFrom >= 10) {
-    return with_('diverging', `${info.name} rising steadily: ${formatDecades(trendRise)} decades in ${formatCount(windowSpan)} iterations`, { ...common, ...trend });
+    return with_('diverging', `${info.name} rising steadily: ${formatDecades(trendRise)} decades in ${formatCount(windowSpan)} iterations`, { ...common, ...trend.fields });
   }
 
   const judgedSpan = lastIteration - column.iterations[judgedFrom];
@@ -133,36 +131,36 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   // A cycle test only when the trend is not clearly larger than the wiggle around it (cheap guard:
   // a clean decay skips it, which keeps the cost of healthy runs low).
   const fall = -slope * windowSpan;
-  const spread = spreadAroundLine(column.iterations, windowLogs, windowFrom, slope);
+  const spread = spreadAroundLine(column.iterations, windowLogs, windowFrom, slope, scratch.deviations);
   if (windowSeen && fall < 2 * spread) {
     const cycleFrom = Math.max(judgedFrom, end - Math.min(OSCILLATION_POINTS, Math.max(4 * (end - windowFrom), 256)));
-    const cycleLogs = noCycleStillHolds(cycleClock, end - cycleFrom) ? null : logs(cycleFrom, end, cycleScratch);
-    const cycle = cycleLogs === null ? null : detectOscillation(cycleLogs, 0, cycleLogs.length);
+    const cycleLogs = noCycleStillHolds(cycleClock, end - cycleFrom) ? null : logs(cycleFrom, end, scratch.cycleLogs);
+    const cycle = cycleLogs === null ? null : detectOscillation(cycleLogs, 0, cycleLogs.length, undefined, scratch);
     if (cycleLogs !== null) recordCycleTest(cycleClock, cycle !== null);
     if (cycle !== null && cycleLogs !== null) {
-      const regionSlope = theilSenSlope(column.iterations.subarray(cycleFrom, end), cycleLogs, 0, cycleLogs.length);
+      const regionSlope = theilSenSlope(column.iterations.subarray(cycleFrom, end), cycleLogs, 0, cycleLogs.length, undefined, scratch);
       const netFall = -regionSlope * (lastIteration - column.iterations[cycleFrom]);
       if (netFall < cycle.amplitude) {
         const spacing = (lastIteration - column.iterations[cycleFrom]) / Math.max(1, end - 1 - cycleFrom);
         const period = cycle.period * spacing;
         return with_('oscillating', `${info.name} cycles every ${formatCount(period)} iterations by ±${formatDecades(cycle.amplitude)} decades without falling`,
-          { ...common, ...trend, period, amplitudeDecades: cycle.amplitude });
+          { ...common, ...trend.fields, period, amplitudeDecades: cycle.amplitude });
       }
     }
   }
   const flat = fall < 0.5 * spread;
-  const useful = !flat && slope < 0 && trend.eta !== undefined && trend.eta <= USEFUL_FACTOR * Math.max(judgedSpan, options.window);
+  const useful = !flat && slope < 0 && trend.fields.eta !== undefined && trend.fields.eta <= USEFUL_FACTOR * Math.max(judgedSpan, options.window);
   if (useful) {
-    return with_('converging', `${info.name} falling ${formatDecades(trend.ordersPerKilo)} orders per 1000 iterations, about ${formatEstimate(trend.eta ?? Number.NaN)} to go`, { ...common, ...trend });
+    return with_('converging', `${info.name} falling ${formatDecades(trend.fields.ordersPerKilo)} decades per 1000 iterations, about ${formatEstimate(trend.fields.eta ?? Number.NaN)} to go`, { ...common, ...trend.fields });
   }
   if (!windowSeen) {
-    return with_(slope < 0 ? 'converging' : 'undecided', `${info.name} ${slope < 0 ? 'falling slowly' : 'not falling yet'}; judged after ${formatCount(options.window)} iterations`, { ...common, ...trend });
+    return with_(slope < 0 ? 'converging' : 'undecided', `${info.name} ${slope < 0 ? 'falling slowly' : 'not falling yet'}; judged after ${formatCount(options.window)} iterations`, { ...common, ...trend.fields });
   }
   const flatFor = lastIteration - column.iterations[windowFrom];
   const reason = slope < 0
-    ? `${info.name} falling too slowly: about ${formatEstimate(trend.eta ?? Number.NaN)} iterations to go at ${formatResidual(10 ** nowLog)}`
+    ? `${info.name} falling too slowly: about ${formatEstimate(trend.fields.eta ?? Number.NaN)} iterations to go at ${formatResidual(10 ** nowLog)}`
     : `${info.name} flat at ${formatResidual(10 ** nowLog)} for ${formatCount(flatFor)} iterations`;
-  return with_('stalled', reason, { ...common, ...trend });
+  return with_('stalled', reason, { ...common, ...trend.fields });
 }
 
 interface TrendFields {
@@ -171,24 +169,27 @@ interface TrendFields {
   readonly eta?: number;
 }
 
-/** Trend over [from, to) of the column, given log10 of its values there (`logs`, to − from long). */
-function trendFields(column: SeriesColumn, from: number, to: number, logs: Float64Array, levelLog: number, nowLog: number, reached: boolean): TrendFields {
+/** Trend over [from, to) of the column, given log10 of its values there (`logs`, to − from long):
+ * the slope and the diagnosis fields; null when there is no trend to give (fewer than two points, or
+ * no finite slope), so no NaN rate is ever reported. */
+function trendFields(column: SeriesColumn, from: number, to: number, logs: Float64Array, levelLog: number, nowLog: number, reached: boolean,
+  scratch: AnalysisScratch): { readonly slope: number; readonly fields: TrendFields } | null {
   const n = to - from;
-  if (n < 2) return { rho: Number.NaN, ordersPerKilo: Number.NaN };
-  const slope = theilSenSlope(column.iterations.subarray(from, to), logs, 0, n);
-  const fields: TrendFields = { rho: 10 ** slope, ordersPerKilo: -1000 * slope };
-  if (reached) return { ...fields, eta: 0 };
-  if (slope < 0) return { ...fields, eta: (levelLog - nowLog) / slope };
-  return fields;
+  if (n < 2) return null;
+  const slope = theilSenSlope(column.iterations.subarray(from, to), logs, 0, n, undefined, scratch);
+  if (!Number.isFinite(slope)) return null;
+  const base = { rho: 10 ** slope, ordersPerKilo: -1000 * slope };
+  const fields: TrendFields = reached ? { ...base, eta: 0 } : slope < 0 ? { ...base, eta: (levelLog - nowLog) / slope } : base;
+  return { slope, fields };
 }
 
 /** Robust wiggle about the line of the given slope: the 10 %–90 % inter-quantile range of the
  * deviations (about the peak-to-peak of a sine, 2.6 σ of Gaussian noise; isolated spikes do not count),
  * from at most 512 points spread evenly over the window. */
-function spreadAroundLine(iterations: Float64Array, logs: Float64Array, from: number, slope: number): number {
+function spreadAroundLine(iterations: Float64Array, logs: Float64Array, from: number, slope: number, scratch: ScratchBuffer): number {
   const m = Math.min(logs.length, 512);
   if (m < 2) return 0;
-  const deviations = deviationScratch.view(m);
+  const deviations = scratch.view(m);
   for (let k = 0; k < m; k++) {
     const i = Math.round((k * (logs.length - 1)) / (m - 1));
     deviations[k] = logs[i] - slope * iterations[from + i];

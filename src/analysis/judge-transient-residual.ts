@@ -17,6 +17,7 @@ import type { SeriesRule } from './resolve-series-criteria.js';
 import type { SegmentMemo } from './segment-tracker.js';
 import { safeLog10 } from './safe-log10.js';
 import { theilSenSlope } from './theil-sen-slope.js';
+import type { AnalysisScratch } from './analysis-scratch.js';
 import { formatCount, formatDecades, formatResidual } from './format-figures.js';
 import { GROWTH_DECADES, JUMP_DECADES } from './judge-residual.js';
 
@@ -29,7 +30,9 @@ export interface StepRange {
   readonly last: number;
 }
 
-export function judgeTransientResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, steps: readonly StepRange[], startup: number): SeriesDiagnosis {
+/** `scratch`: the judge's working arrays (analysis-scratch.ts); without it, fresh arrays are used. */
+export function judgeTransientResidual(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, steps: readonly StepRange[], startup: number,
+  scratch?: AnalysisScratch): SeriesDiagnosis {
   const { info } = column;
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   const base = { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last };
@@ -58,12 +61,12 @@ export function judgeTransientResidual(column: SeriesColumn, memo: SegmentMemo, 
   const lastStep = recent[recent.length - 1];
   const innerLogs = new Float64Array(lastStep.last - lastStep.first + 1);
   for (let i = 0; i < innerLogs.length; i++) innerLogs[i] = safeLog10(column.values[lastStep.first + i]);
-  const slope = theilSenSlope(column.iterations.subarray(lastStep.first, lastStep.last + 1), innerLogs, 0, innerLogs.length);
+  const slope = theilSenSlope(column.iterations.subarray(lastStep.first, lastStep.last + 1), innerLogs, 0, innerLogs.length, undefined, scratch);
   const extra = { rho: 10 ** slope, ordersPerKilo: -1000 * slope, dropDecades: lastDrop, target: rule.target };
 
   const minFinal = Math.min(...finals);
   const rise = finals[finals.length - 1] - minFinal;
-  const trend = finals.length >= 5 ? theilSenSlope(finals.map((_, i) => i), finals, 0, finals.length) * (finals.length - 1) : 0;
+  const trend = finals.length >= 5 ? theilSenSlope(finals.map((_, i) => i), finals, 0, finals.length, undefined, scratch) * (finals.length - 1) : 0;
   if (rise >= JUMP_DECADES || (trend >= GROWTH_DECADES && met < recent.length / 2)) {
     return with_('diverging', `${info.name} at the end of each time step grew ${formatDecades(Math.max(rise, trend))} decades over the last ${recent.length} steps`, extra);
   }

@@ -18,7 +18,7 @@
  *
  * @example mserTruncation(values, 0, values.length) // → { truncatePoints: 150, settled: true, … }
  */
-import { ScratchBuffer } from './scratch-buffer.js';
+import { scratchView, type AnalysisScratch } from './analysis-scratch.js';
 export interface MserResult {
   /** Batches dropped (d). */
   readonly truncateBatches: number;
@@ -32,12 +32,12 @@ export interface MserResult {
 
 export const MSER_BATCH = 5;
 
-const batchMeans = new ScratchBuffer();
-
-export function mserTruncation(values: ArrayLike<number>, from: number, to: number, batchSize = MSER_BATCH): MserResult | null {
+/** `scratch`: the caller's working arrays (analysis-scratch.ts); without it, a fresh array is used. */
+export function mserTruncation(values: ArrayLike<number>, from: number, to: number, batchSize = MSER_BATCH,
+  scratch?: AnalysisScratch): MserResult | null {
   const k = Math.floor((to - from) / batchSize);
   if (!(k >= 10)) return null;
-  const z = batchMeans.view(k);
+  const z = scratchView(scratch?.batchMeans, k);
   for (let j = 0; j < k; j++) {
     let sum = 0;
     const start = from + j * batchSize;

@@ -21,7 +21,8 @@ import type { Criteria } from './criteria.js';
 import type { RunDiagnosis, SeriesDiagnosis, State, StateChange } from './diagnosis.js';
 import { EXIT_CODES, FINAL_STATES } from './diagnosis.js';
 import { advanceSegment, firstIndexAtOrAfter, segmentStartIndex, type SegmentMemo } from './segment-tracker.js';
-import { resolveSeriesCriteria, type SeriesRule } from './resolve-series-criteria.js';
+import { compileSeriesCriteria, type SeriesRule, type SeriesRuleResolver } from './resolve-series-criteria.js';
+import { createAnalysisScratch, type AnalysisScratch } from './analysis-scratch.js';
 import { judgeResidual } from './judge-residual.js';
 import { judgeQuantity, QUANTITY_SPAN, type QuantitySamples } from './judge-quantity.js';
 import { judgeTransientResidual, RECENT_STEPS, type StepRange } from './judge-transient-residual.js';
@@ -39,6 +40,9 @@ interface Held {
   readonly raw: State;
   readonly held: number;
   readonly shown: State;
+  /** The reason given when the shown state was last the raw one, and at which iteration. */
+  readonly reason?: string;
+  readonly reasonAt?: number;
 }
 
 interface JudgeState {
@@ -48,7 +52,7 @@ interface JudgeState {
   readonly series: ReadonlyMap<string, Held>;
   readonly run: Held;
   readonly timeline: readonly StateChange[];
-  /** Latest reason seen per alarm state (raw), for advice on a held verdict. */
+  /** Latest reason shown per alarm state, with its iteration, for advice on a held verdict. */
   readonly alarmReasons: AlarmReasons;
 }
 
@@ -60,30 +64,60 @@ export interface RunJudgeOptions {
   readonly confirmed?: boolean;
 }
 
+/** What an evaluation needs besides the state: fixed when the judge is created. */
+interface JudgeContext {
+  readonly criteria: Criteria;
+  readonly confirm: number;
+  /** The criteria's globs, compiled once. */
+  readonly ruleOf: SeriesRuleResolver;
+  /** Working arrays owned by this judge (analysis-scratch.ts); no evaluation keeps a view past its end. */
+  readonly scratch: AnalysisScratch;
+}
+
 export function createRunJudge(criteria: Criteria, options: RunJudgeOptions = {}): RunJudge {
   const problems = validateCriteria(criteria);
   if (problems.length > 0) throw new RangeError(`invalid criteria: ${problems.join('; ')}`);
   let state: JudgeState = { memos: new Map(), cycles: new Map(), series: new Map(), run: INITIAL, timeline: [], alarmReasons: {} };
-  const confirm = options.confirmed === true ? 1 : criteria.confirm;
+  const context: JudgeContext = {
+    criteria,
+    confirm: options.confirmed === true ? 1 : criteria.confirm,
+    ruleOf: compileSeriesCriteria(criteria),
+    scratch: createAnalysisScratch(),
+  };
   return {
     update(snapshot) {
-      const { diagnosis, next } = evaluate(snapshot, criteria, state, confirm);
+      const { diagnosis, next } = evaluate(snapshot, context, state);
       state = next;
       return diagnosis;
     },
     peek(snapshot) {
-      return evaluate(snapshot, criteria, state, confirm).diagnosis;
+      return evaluate(snapshot, context, state).diagnosis;
     },
   };
 }
 
-function hold(previous: Held, raw: State, confirm: number): Held {
+function hold(previous: Held, raw: State, confirm: number, reason?: string, at?: number): Held {
   const held = raw === previous.raw ? previous.held + 1 : 1;
   const shown = !isAlarm(raw) || held >= confirm ? raw : previous.shown;
-  return { raw, held, shown };
+  return shown === raw ? { raw, held, shown, reason, reasonAt: at } : { raw, held, shown, reason: previous.reason, reasonAt: previous.reasonAt };
 }
 
-function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, confirm: number): { diagnosis: RunDiagnosis; next: JudgeState } {
+interface Judged {
+  readonly raw: SeriesDiagnosis;
+  readonly previous: Held;
+  held: Held;
+  readonly rule: SeriesRule;
+}
+
+/**
+ * One evaluation. The run verdict is confirmed on the raw states of the counted series; the series that
+ * support a confirmed alarm (raw in that state now) are confirmed with it, so the table shows them in
+ * the verdict's state. Advice and reasons then come from the states shown: a series shown in a state
+ * it held earlier speaks with the reason it had then and its iteration; pending-alarm notes are added
+ * only while the verdict is not final.
+ */
+function evaluate(snapshot: RunSnapshot, context: JudgeContext, state: JudgeState): { diagnosis: RunDiagnosis; next: JudgeState } {
+  const { criteria, confirm, ruleOf, scratch } = context;
   const memos = new Map(state.memos);
   const cycles = new Map(state.cycles);
   const heldSeries = new Map(state.series);
@@ -92,55 +126,74 @@ function evaluate(snapshot: RunSnapshot, criteria: Criteria, state: JudgeState, 
   const steps = snapshot.transient && snapshot.timeSteps !== undefined ? snapshot.timeSteps : undefined;
   const shownSeries: SeriesDiagnosis[] = [];
   const counted: CountedSeries[] = [];
-  const countedRaw: CountedSeries[] = [];
   const pendingNotes: string[] = [];
+  const judged: Judged[] = [];
 
   for (const column of snapshot.series) {
     const name = column.info.name;
     const memo = advanceSegment(state.memos.get(name), column, snapshot.restarts);
     memos.set(name, memo);
-    const rule = resolveSeriesCriteria(criteria, name);
+    const rule = ruleOf(name);
     const clock: CycleTestClock = { slot: { memo: state.cycles.get(name) }, points: column.totalAdded, segment: memo.segments };
-    const raw = judgeSeries(column, memo, rule, criteria, snapshot, steps, clock);
+    const raw = judgeSeries(column, memo, rule, criteria, snapshot, steps, clock, scratch);
     if (clock.slot.memo === undefined) cycles.delete(name);
     else cycles.set(name, clock.slot.memo);
     const previous = state.series.get(name) ?? INITIAL;
-    const held = hold(previous, raw.state, confirm);
-    heldSeries.set(name, held);
-    let shown = raw;
-    if (held.shown !== raw.state) {
-      const note = `${name} looks ${raw.state} (${raw.reason}); confirming, ${held.held} of ${confirm} checks`;
-      pendingNotes.push(note);
-      shown = { ...raw, state: held.shown, reason: `${note}` };
-    }
-    if (held.shown !== previous.shown && !(previous.held === 0 && held.shown === 'undecided')) {
-      changes.push({ iteration: lastIteration, series: name, from: previous.shown, to: held.shown, text: `it ${formatCount(lastIteration)}: ${changeText(shown)}` });
-    }
-    shownSeries.push(shown);
-    if (rule.counted && (raw.kind === 'residual' || raw.kind === 'quantity')) {
-      counted.push({ diagnosis: shown, rule });
-      countedRaw.push({ diagnosis: raw, rule });
-    }
+    judged.push({ raw, previous, held: hold(previous, raw.state, confirm, raw.reason, lastIteration), rule });
   }
+  const isCounted = (j: Judged): boolean => j.rule.counted && (j.raw.kind === 'residual' || j.raw.kind === 'quantity');
 
-  const raw = snapshot.records === 0 && snapshot.failure === undefined ? 'undecided' : rawVerdict(countedRaw, snapshot.failure);
-  let alarmReasons = state.alarmReasons;
-  for (const alarm of ['failed', 'diverging', 'oscillating', 'stalled'] as const) {
-    const reason = countedRaw.find((c) => c.diagnosis.state === alarm)?.diagnosis.reason;
-    if (reason !== undefined && alarmReasons[alarm] !== reason) alarmReasons = { ...alarmReasons, [alarm]: reason };
-  }
+  const raw = snapshot.records === 0 && snapshot.failure === undefined
+    ? 'undecided'
+    : rawVerdict(judged.filter(isCounted).map((j) => ({ diagnosis: j.raw, rule: j.rule })), snapshot.failure);
   const run = hold(state.run, raw, confirm);
   const verdict = run.shown;
   if (verdict !== state.run.shown) {
     changes.push({ iteration: lastIteration, series: null, from: state.run.shown, to: verdict, text: `it ${formatCount(lastIteration)}: run ${verdict}` });
   }
-  // Advice follows the verdict shown: when a run alarm is still being confirmed, explain from the raw
-  // states what is suspected, but advise according to the shown verdict.
-  const basis = verdict === raw ? countedRaw : counted;
-  const { advice, reasons } = adviseRun(verdict, basis, snapshot.failure, criteria.startup, alarmReasons);
-  if (verdict !== raw) reasons.push(`looks ${raw}; confirming, ${run.held} of ${confirm} checks`);
-  for (const note of pendingNotes) if (!reasons.includes(note)) reasons.push(note);
+  // A confirmed run alarm confirms the series that raise it now (the run counts consecutive alarms,
+  // possibly from different series, so a series may still be mid-confirmation on its own).
+  if (isAlarm(verdict) && verdict === raw) {
+    for (const j of judged) {
+      if (isCounted(j) && j.raw.state === verdict && j.held.shown !== verdict) j.held = { ...j.held, shown: verdict, reason: j.raw.reason, reasonAt: lastIteration };
+    }
+  }
+
+  for (const { raw: d, previous, held, rule } of judged) {
+    const name = d.name;
+    heldSeries.set(name, held);
+    let shown = d;
+    // The series as the verdict's advice and reasons see it: its shown state, with the reason it had
+    // when that state was last its own (and when), never a pending-alarm note.
+    let settled = d;
+    if (held.shown !== d.state) {
+      const note = `${name} looks ${d.state} (${d.reason}); confirming, ${held.held} of ${confirm} checks`;
+      pendingNotes.push(note);
+      shown = { ...d, state: held.shown, reason: note };
+      const earlier = held.reason !== undefined && held.reasonAt !== undefined ? `${held.reason} (at it ${formatCount(held.reasonAt)})` : `${name} ${held.shown}`;
+      settled = { ...d, state: held.shown, reason: earlier };
+    }
+    if (held.shown !== previous.shown && !(previous.held === 0 && held.shown === 'undecided')) {
+      changes.push({ iteration: lastIteration, series: name, from: previous.shown, to: held.shown, text: `it ${formatCount(lastIteration)}: ${changeText(shown)}` });
+    }
+    shownSeries.push(shown);
+    if (isCounted({ raw: d, previous, held, rule })) counted.push({ diagnosis: settled, rule });
+  }
+
+  // Remembered per alarm for a verdict held after every series has moved on: the reason a series
+  // showed for it at this evaluation, and when.
+  let alarmReasons = state.alarmReasons;
+  for (const alarm of ['failed', 'diverging', 'oscillating', 'stalled'] as const) {
+    const current = counted.find((c) => c.diagnosis.state === alarm && heldSeries.get(c.diagnosis.name)?.raw === alarm);
+    const reason = current === undefined ? undefined : `${current.diagnosis.reason} (last seen at it ${formatCount(lastIteration)})`;
+    if (reason !== undefined && alarmReasons[alarm] !== reason) alarmReasons = { ...alarmReasons, [alarm]: reason };
+  }
   const final = FINAL_STATES.has(verdict) && verdict === raw && (verdict === 'failed' || run.held >= confirm);
+  const { advice, reasons } = adviseRun(verdict, counted, snapshot.failure, criteria.startup, alarmReasons);
+  if (!final) {
+    if (verdict !== raw) reasons.push(`looks ${raw}; confirming, ${run.held} of ${confirm} checks`);
+    for (const note of pendingNotes) if (!reasons.includes(note)) reasons.push(note);
+  }
 
   const timeline = changes.length === 0 ? state.timeline : [...state.timeline, ...changes].slice(-TIMELINE_LIMIT);
   const diagnosis: RunDiagnosis = {
@@ -167,16 +220,16 @@ function changeText(d: SeriesDiagnosis): string {
 }
 
 function judgeSeries(column: SeriesColumn, memo: SegmentMemo, rule: SeriesRule, criteria: Criteria, snapshot: RunSnapshot,
-  steps: RunSnapshot['timeSteps'], clock: CycleTestClock): SeriesDiagnosis {
+  steps: RunSnapshot['timeSteps'], clock: CycleTestClock, scratch: AnalysisScratch): SeriesDiagnosis {
   const { info } = column;
   if (info.kind === 'residual') {
     if (steps !== undefined) {
       const ranges = stepRanges(column, snapshot, steps, RECENT_STEPS + 1).slice(0, -1);
-      if (ranges.length > 0 || steps.length > 1) return judgeTransientResidual(column, memo, rule, ranges, criteria.startup);
+      if (ranges.length > 0 || steps.length > 1) return judgeTransientResidual(column, memo, rule, ranges, criteria.startup, scratch);
     }
-    return judgeResidual(column, memo, rule, { window: criteria.window, startup: criteria.startup }, clock);
+    return judgeResidual(column, memo, rule, { window: criteria.window, startup: criteria.startup }, clock, scratch);
   }
-  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol, criteria.window, clock);
+  if (info.kind === 'quantity') return judgeQuantity(quantitySamples(column, memo, criteria, snapshot, steps), rule.qoiTol, criteria.window, clock, scratch);
   const last = column.length > 0 ? column.values[column.length - 1] : Number.NaN;
   return { name: info.name, kind: info.kind, label: info.label, unit: info.unit, last, state: 'undecided', reason: `${info.name} is shown, not judged` };
 }

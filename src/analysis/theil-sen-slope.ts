@@ -9,15 +9,13 @@
  *
  * Cost: the window [from, to) is first thinned to at most `maxPoints` points spread evenly over it, so
  * one call costs O(m² log m) with m = min(to − from, maxPoints), whatever the window length.
+ * `scratch`: the caller's working arrays (analysis-scratch.ts); without it, fresh arrays are used.
  * Pairs with equal x are skipped. Returns NaN when fewer than two distinct x remain or a value is not
  * finite.
  *
  * @example theilSenSlope([0, 1, 2, 3, 4], [0, 2, 4, 6, 100], 0, 5) // → 2 (the outlier does not pull it)
  */
-import { ScratchBuffer } from './scratch-buffer.js';
-const pointsX = new ScratchBuffer();
-const pointsY = new ScratchBuffer();
-const pairSlopes = new ScratchBuffer();
+import { scratchView, type AnalysisScratch } from './analysis-scratch.js';
 
 export function theilSenSlope(
   xs: ArrayLike<number>,
@@ -25,19 +23,20 @@ export function theilSenSlope(
   from: number,
   to: number,
   maxPoints = 48,
+  scratch?: AnalysisScratch,
 ): number {
   const length = to - from;
   if (!(length >= 2)) return Number.NaN;
   const m = Math.min(length, Math.max(2, Math.floor(maxPoints)));
-  const px = pointsX.view(m);
-  const py = pointsY.view(m);
+  const px = scratchView(scratch?.slopeX, m);
+  const py = scratchView(scratch?.slopeY, m);
   for (let k = 0; k < m; k++) {
     const index = from + (m === 1 ? 0 : Math.round((k * (length - 1)) / (m - 1)));
     px[k] = xs[index];
     py[k] = ys[index];
     if (!Number.isFinite(px[k]) || !Number.isFinite(py[k])) return Number.NaN;
   }
-  const slopes = pairSlopes.view((m * (m - 1)) / 2);
+  const slopes = scratchView(scratch?.pairSlopes, (m * (m - 1)) / 2);
   let count = 0;
   for (let i = 0; i < m; i++) {
     for (let j = i + 1; j < m; j++) {

@@ -54,7 +54,7 @@ describe('residual rate against the 2-D Poisson model problem (Young 1971; Saad 
     const last = all[all.length - 1];
     expect(last.verdict).toBe('converged');
     expect(last.final).toBe(true);
-    expect(last.advice).toMatch(/^stop: all residuals \d+(\.\d)? orders down$/);
+    expect(last.advice).toMatch(/^stop: all residuals \d+(\.\d)? decades down$/);
   });
 });
 
@@ -174,7 +174,7 @@ describe('quantities', () => {
     expect(d.verdict).toBe('converged');
     const drag = d.series[1];
     expect(Math.abs(drag.mean! - 0.3312)).toBeLessThan(drag.halfWidth! * 3);
-    expect(d.advice).toMatch(/^stop: res_p [\d.]+ orders down and drag settled at 0\.33\d+ ± 0\.0+\d+ for [\d ]+ iterations$/);
+    expect(d.advice).toMatch(/^stop: res_p [\d.]+ decades down and drag settled at 0\.33\d+ ± 0\.0+\d+ for [\d ]+ iterations$/);
   });
 
   it('a quantity approaching its limit geometrically is converging, with the Ferziger & Perić error estimate', () => {
