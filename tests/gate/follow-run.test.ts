@@ -1,6 +1,6 @@
 /** The follow loop on a scripted monitor (the real one is driven end to end in
  * tests/cli/check-follow.test.ts): when it stops, what it prints, and what it hands to the actions. */
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -87,13 +87,30 @@ describe('followAndGate', () => {
     expect(o.out.text()).toContain('gate: stopped following because the verdict held for the confirmation window');
   });
 
-  it('stops after the idle time when nothing new arrives', async () => {
-    const { monitor } = scriptedMonitor([makeDiagnosis({ verdict: 'converging', final: false, iterations: 300 })]);
-    const o = options(monitor, { idleMs: 150 });
-    const started = Date.now();
-    expect(await followAndGate(o)).toBe(10);
-    expect(Date.now() - started).toBeGreaterThanOrEqual(150);
-    expect(o.out.text()).toContain('gate: stopped following because the log did not grow for 150ms');
+  it('stops once the log has not grown for the idle time, counted from the last records (on a fake clock)', async () => {
+    // Fake timers drive both the clock (Date.now) and the idle check, so this holds on any machine.
+    vi.useFakeTimers({ now: 0 });
+    try {
+      // Records arrive at 0, 5 and 10 ms (one scripted diagnosis every 5 ms), then nothing more.
+      const { monitor, stopped } = scriptedMonitor([
+        makeDiagnosis({ verdict: 'converging', final: false, iterations: 280 }),
+        makeDiagnosis({ verdict: 'converging', final: false, iterations: 290 }),
+        makeDiagnosis({ verdict: 'converging', final: false, iterations: 300 }),
+      ]);
+      const o = options(monitor, { idleMs: 150 });
+      const result = followAndGate(o);
+      await vi.advanceTimersByTimeAsync(159);
+      // 150 ms after the first records, but not after the last ones (at 10 ms): still following.
+      expect(stopped()).toBe(false);
+      // The idle check runs every idle/5 = 30 ms: the first one at or after 160 ms ends it.
+      await vi.advanceTimersByTimeAsync(180 - 159);
+      expect(stopped()).toBe(true);
+      expect(await result).toBe(10);
+      expect(o.out.text()).toContain('at iteration 300');
+      expect(o.out.text()).toContain('gate: stopped following because the log did not grow for 150ms');
+    } finally {
+      vi.useRealTimers();
+    }
   });
 
   it('stops when the watched process is gone', async () => {
