@@ -7,6 +7,8 @@
  * { "drop": 4, "window": 300,
  *   "perSeries": [ { "pattern": "res_T", "drop": 6 }, { "pattern": "cfl*", "ignore": true } ] }
  */
+import { MIN_WINDOW } from './validate-criteria.js';
+
 export const CRITERIA_SCHEMA = {
   $id: 'https://settle.invalid/criteria.schema.json',
   title: 'settle convergence criteria',
@@ -18,7 +20,7 @@ export const CRITERIA_SCHEMA = {
     drop: { type: 'number', exclusiveMinimum: 0, description: 'decades a residual must fall from its peak' },
     target: { type: 'number', exclusiveMinimum: 0, description: 'absolute residual target' },
     qoiTol: { type: 'number', exclusiveMinimum: 0, exclusiveMaximum: 1, description: 'relative 95 % half-width a quantity must settle to' },
-    window: { type: 'integer', minimum: 1, description: 'trailing window in iterations' },
+    window: { type: 'integer', minimum: MIN_WINDOW, description: 'trailing window in iterations (at least 5: a trend needs 5 points)' },
     series: { type: 'array', items: { type: 'string', minLength: 1 }, description: 'globs of the series that count' },
     startup: { type: 'integer', minimum: 0, description: 'iterations not judged at the start and after a restart' },
     confirm: { type: 'integer', minimum: 1, description: 'consecutive evaluations a stopping verdict must hold' },

@@ -5,6 +5,9 @@
  */
 import type { Criteria } from './criteria.js';
 
+/** Smallest trailing window, in iterations: the residual judge fits a trend only to 5 points or more. */
+export const MIN_WINDOW = 5;
+
 export function validateCriteria(criteria: Criteria): string[] {
   const problems: string[] = [];
   const positive = (path: string, value: unknown, integer = false): void => {
@@ -15,7 +18,9 @@ export function validateCriteria(criteria: Criteria): string[] {
   positive('drop', criteria.drop);
   if (criteria.target !== undefined) positive('target', criteria.target);
   positive('qoiTol', criteria.qoiTol);
-  positive('window', criteria.window, true);
+  if (typeof criteria.window !== 'number' || !Number.isInteger(criteria.window) || criteria.window < MIN_WINDOW) {
+    problems.push(`window: must be a whole number ≥ ${MIN_WINDOW} (iterations; a trend needs at least ${MIN_WINDOW} points), got ${String(criteria.window)}`);
+  }
   positive('confirm', criteria.confirm, true);
   if (typeof criteria.startup !== 'number' || !Number.isInteger(criteria.startup) || criteria.startup < 0) {
     problems.push(`startup: must be a whole number ≥ 0, got ${String(criteria.startup)}`);

@@ -9,6 +9,7 @@ import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
 import { DEFAULT_CRITERIA, type Criteria, type SeriesCriteria } from '../analysis/criteria.js';
 import { CRITERIA_SCHEMA } from '../analysis/criteria-schema.js';
 import { shorten, SpecError, UsageError } from '../errors.js';
+import { MIN_WINDOW } from '../analysis/validate-criteria.js';
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
@@ -45,7 +46,7 @@ export function criteriaFromOptions(options: Record<string, unknown>): Criteria 
   const drop = number('--drop', 'drop', (n) => n > 0, '3', 'a positive number of decades');
   const target = number('--target', 'target', (n) => n > 0, '1e-6', 'a positive residual value');
   const qoiTol = number('--qoi-tol', 'qoiTol', (n) => n > 0 && n < 1, '1e-3', 'a fraction between 0 and 1');
-  const window = number('--window', 'window', (n) => Number.isInteger(n) && n >= 1, '200', 'a positive whole number of iterations');
+  const window = number('--window', 'window', (n) => Number.isInteger(n) && n >= MIN_WINDOW, '200', `a whole number of iterations, at least ${MIN_WINDOW}`);
   const startup = number('--startup', 'startup', (n) => Number.isInteger(n) && n >= 0, '20', 'a whole number of iterations (0 or more)');
   const confirm = number('--confirm', 'confirm', (n) => Number.isInteger(n) && n >= 1, '3', 'a positive whole number of evaluations');
   if (drop !== undefined) criteria.drop = drop;

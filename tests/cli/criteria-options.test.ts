@@ -41,7 +41,7 @@ describe('criteriaFromOptions', () => {
 
   it.each([
     ['--drop', '0'], ['--drop', '-1'], ['--drop', 'three'], ['--target', '0'], ['--qoi-tol', '1'], ['--qoi-tol', '0'],
-    ['--window', '10.5'], ['--window', '0'], ['--startup', '-1'], ['--confirm', '0'], ['--confirm', '1.5'], ['--series', ''],
+    ['--window', '10.5'], ['--window', '0'], ['--window', '1'], ['--window', '4'], ['--startup', '-1'], ['--confirm', '0'], ['--confirm', '1.5'], ['--series', ''],
   ])('rejects %s %s with a usage error and a hint', (flag, value) => {
     let error: unknown;
     try {
@@ -71,6 +71,17 @@ describe('criteriaFromOptions', () => {
       expect.stringContaining(': perSeries.1.qoiTol: '),
     ]));
     expect(problems).toHaveLength(4);
+  });
+
+  it('refuses a criteria file whose window is below 5 iterations (a trend needs 5 points)', () => {
+    let error: unknown;
+    try {
+      criteriaFromOptions({ criteria: file('short-window.json', JSON.stringify({ window: 4 })) });
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(SpecError);
+    expect((error as SpecError).problems).toEqual([expect.stringMatching(/: window: .*5/)]);
   });
 
   it('reports invalid JSON and a missing file as user errors', () => {
