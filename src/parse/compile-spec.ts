@@ -7,7 +7,7 @@ import type { SeriesInfo, SeriesKind } from './log-record.js';
 import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { capLine, groupNames, UserPattern } from './user-pattern.js';
-import { globMatcher } from './glob-matcher.js';
+import { globMatcher } from '../text/glob.js';
 import { lexNumber, lexNumberIn } from './lex-number.js';
 import { scanKeyValues } from './scan-key-values.js';
 import { splitFieldBounds, splitFields } from './split-fields.js';

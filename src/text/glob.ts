@@ -19,7 +19,7 @@ export function compileGlob(glob: string): (name: string) => boolean {
 }
 
 /** A test that is true when a name matches any of the globs (false for every name when there are
- * none). Same API as src/parse/glob-matcher.ts, which may re-export it. */
+ * none). Used by parser specs (kinds), --residual/--quantity, criteria and log-path globs. */
 export function globMatcher(globs: readonly string[]): (name: string) => boolean {
   if (globs.length === 0) return () => false;
   const regex = new RegExp(`^(?:${globs.map(globToSource).join('|')})$`, 'su');

@@ -7,7 +7,7 @@
 import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { UsageError } from '../errors.js';
-import { globMatcher } from '../parse/glob-matcher.js';
+import { globMatcher } from '../text/glob.js';
 
 /** Names a folder's logs may have (plain or gzip-compressed). */
 export const LOG_FILE_PATTERN = /\.(log|out|txt|csv|jsonl|dat)(\.gz)?$/i;

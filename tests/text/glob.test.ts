@@ -34,7 +34,7 @@ describe('compileGlob', () => {
   });
 });
 
-describe('globMatcher (the API of src/parse/glob-matcher.ts)', () => {
+describe('globMatcher (parser kinds, --residual/--quantity, log-path globs)', () => {
   it('is true when any glob matches', () => {
     const test = globMatcher(['res_*', 'drag']);
     expect(['res_p', 'drag', 'lift', 'dragx'].map(test)).toEqual([true, true, false, false]);
