@@ -137,6 +137,9 @@ export function registerReportCommand(program: Command): void {
     .addOption(new Option('--format <format>', 'text, md, html or json (default: from the -o extension, else text)'))
     .option('-o, --output <file>', 'write the report to this file instead of standard output');
   addCriteriaOptions(refusePollOption(addSourceOptions(command)));
+  command.addHelpText('after', `
+Exit codes: 0 report written (whatever the verdicts; settle check gives verdict codes), 2 usage error,
+  3 unreadable input, 4 the report could not be written (-o) after the logs were read.`);
   command.action(async (logs: string[], flags: ReportFlags) => {
     const format = reportFormatOf(flags.format, flags.output);
     await runReport({

@@ -78,7 +78,7 @@ describe('settle check refuses bad input with one line and a hint', () => {
     ['a missing log', async () => [join(dir, 'nope.log')], /cannot read .*nope\.log: no such file/],
     ['standard input twice', async () => ['-', '-'], /standard input \(-\) can be read only once/],
     ['a folder for a log', async () => [dir], /cannot read .*: not a file/],
-    ['a bad criteria flag', async () => [log, '--window', 'ten'], /--window needs a positive whole number/],
+    ['a bad criteria flag', async () => [log, '--window', 'ten'], /--window needs a whole number/],
   ])('refuses %s', async (_label, args, message) => {
     const { code, stderr } = await refuse(await args());
     expect(code).toBe(/cannot read/.test(message.source) ? 3 : 2);
