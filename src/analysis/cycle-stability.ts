@@ -3,7 +3,7 @@
  * compared from one period to the next.
  *
  * Purpose: in a transient run driven periodically (or shedding periodically), the goal is a
- * statistically periodic state, not a constant (methods.md, "Transient runs"). Such a state is
+ * statistically periodic state, not a constant (DEVELOPERS.md "Methods and sources", "Transient runs"). Such a state is
  * reached when the cycle repeats itself: its mean and its amplitude no longer change from period to
  * period (the cycle-to-cycle check of periodic computations, common practice: advance period by
  * period until period-averaged values and amplitudes repeat to a tolerance; the measure below and its

@@ -22,7 +22,7 @@
  *    periods with an interval from whole-period batches.
  * 6. A quantity the rules above leave `converging` (no cycle) still counts as settled when its remaining
  *    change is negligible: monotone over the trailing window, moved by at most qoiTol of its value
- *    there (common practice, methods.md), and a geometric tail (Ferziger & Perić 2002 §5.7; see
+ *    there (common practice, DEVELOPERS.md "Methods and sources"), and a geometric tail (Ferziger & Perić 2002 §5.7; see
  *    remaining-change.ts) within qoiTol; reported with the extrapolated limit ± that tail.
  * Settled means: relative half-width ≤ qoiTol, no drift, no significant iteration error left.
  * Tolerances are relative to |mean| (or to 1 when the mean is exactly 0).
@@ -85,7 +85,7 @@ export function judgeQuantity(samples: QuantitySamples, qoiTol: number, window =
  * the one before), so the statistical rules alone would call it converging for ever. It counts as
  * settled when, over the trailing window (criteria.window iterations), it moved monotonically, by no
  * more than qoiTol of its value (the common-practice rule: change over the last few hundred
- * iterations below about 0.1 % of the value, methods.md), and the geometric tail still to come
+ * iterations below about 0.1 % of the value, DEVELOPERS.md "Methods and sources"), and the geometric tail still to come
  * (Ferziger & Perić 2002, §5.7: per iteration where that applies, else over blocks of the window,
  * remaining-change.ts) is within qoiTol too. Mean = the extrapolated limit; half-width = the
  * estimated remaining iteration error (at least half the print resolution seen).
@@ -202,7 +202,7 @@ function judgeByStatistics(samples: QuantitySamples, qoiTol: number, cycleClock:
 
 /**
  * Step 0 for transient runs: a quantity that cycles over physical time (a periodic state is the goal,
- * methods.md) is judged by the stability of its cycle (cycle-stability.ts) over all judged samples,
+ * DEVELOPERS.md "Methods and sources") is judged by the stability of its cycle (cycle-stability.ts) over all judged samples,
  * start-up transient included (detect-oscillation.ts removes the trend, retried without the first
  * quarter and half; the period is refined on the newest cycles, cycle-stability.ts; the last whole
  * periods are what is compared). Tolerances are relative to the larger of the cycle's amplitude and |mean|: a

@@ -2,7 +2,7 @@
  * A monitored quantity blowing up: its magnitude grew by orders of magnitude above the level it held.
  *
  * Method (settle's own rule, in the spirit of the residual rule "sustained growth or a jump of several
- * decades", methods.md): the reference scale is the median of the non-zero finite |value| over the
+ * decades", DEVELOPERS.md "Methods and sources"): the reference scale is the median of the non-zero finite |value| over the
  * judged samples (start-up already excluded by the caller; exact zeros ignored, so a quantity that
  * starts at 0 has no scale of 0). The quantity is blowing up when
  * - its last |value| is at least 10^decades (default 10³) times that scale, and the one before is at

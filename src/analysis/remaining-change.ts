@@ -22,7 +22,7 @@
  * the judged history covers them and stays monotone; the first that decays gives the tail.
  * Also reported: the change over the whole window, the quantity the common-practice rule looks at
  * ("change over the last few hundred iterations below about 0.1 % to 1 % of its value", see
- * /work/shared/guide/methods.md), and the print resolution seen (the smallest non-zero step).
+ * DEVELOPERS.md, "Methods and sources"), and the print resolution seen (the smallest non-zero step).
  * Source: Ferziger & Perić (2002), "Computational Methods for Fluid Dynamics", 3rd ed., Springer, §5.7.
  *
  * Cost: O(w) for the w samples of the window. Pure; does not modify its inputs.
