@@ -5,21 +5,8 @@
  * a mean with its half-width rounded to the half-width's first significant digit ("0.3312 ± 0.0004").
  */
 
-/** Whole number with a space between groups of three digits: 4210 → "4 210". */
-export function formatCount(value: number): string {
-  if (!Number.isFinite(value)) return String(value);
-  const rounded = Math.round(value);
-  const digits = String(Math.abs(rounded)).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');
-  return rounded < 0 ? `-${digits}` : digits;
-}
-
-/** A count rounded to two significant figures for estimates: 2 287 → "2 300". */
-export function formatEstimate(value: number): string {
-  if (!Number.isFinite(value)) return String(value);
-  if (Math.abs(value) < 100) return formatCount(value);
-  const magnitude = 10 ** (Math.floor(Math.log10(Math.abs(value))) - 1);
-  return formatCount(Math.round(value / magnitude) * magnitude);
-}
+// Counts and estimates print exactly as in every view (one style throughout).
+export { formatCount, formatEstimate } from '../text/format-count.js';
 
 /** Two significant figures: short scientific form for small and large values (0.000213 → "2.1e-4",
  * 52 300 → "5.2e4"), plain between 0.001 and 10 000 (1.63 → "1.6", 0.0213 → "0.021", 870 → "870");

@@ -5,7 +5,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { formatCount, formatEstimate } from '../../src/text/format-count.js';
-import * as analysisFigures from '../../src/analysis/format-figures.js';
 
 describe('formatCount', () => {
   it.each([
@@ -32,15 +31,6 @@ describe('formatEstimate', () => {
     fc.assert(fc.property(fc.double({ min: 100, max: 1e12, noNaN: true }), (x) => {
       const shown = Number(formatEstimate(x).replace(/ /g, ''));
       return Math.abs(shown - x) <= 0.05 * x + 1e-9 && String(shown).replace(/0+$/, '').length <= 2;
-    }));
-  });
-});
-
-describe('the same style as the analysis reasons', () => {
-  it('prints counts and estimates exactly as src/analysis/format-figures.ts does', () => {
-    fc.assert(fc.property(fc.double({ min: -1e9, max: 1e9, noNaN: true }), (x) => {
-      expect(formatCount(x)).toBe(analysisFigures.formatCount(x));
-      expect(formatEstimate(x)).toBe(analysisFigures.formatEstimate(x));
     }));
   });
 });
