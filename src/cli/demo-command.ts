@@ -30,6 +30,7 @@ import { DEMO_DEFAULTS } from '../demo/run-cavity-scenario.js';
 import type { DemoProcessArguments } from '../demo/write-cavity-log.js';
 import { benchmarkJson, benchmarkText, compareWithBenchmark, rayleighText } from '../demo/cavity-benchmark.js';
 import { STUDY_GRID_STEP, STUDY_TARGET, defaultStudyCoarseGrid, studyGrids } from '../demo/grid-study-plan.js';
+import { formatCount } from '../text/format-count.js';
 
 /** Iterations per second the demo solver writes at most (live mode). */
 export const DEMO_RATE = 250;
@@ -230,7 +231,7 @@ export async function runDemoStudy(options: DemoStudyOptions, stdout: NodeJS.Wri
         closeSync(fd);
       }
       const nu = summary.last === undefined ? 'none' : summary.last.nuHot.toFixed(4);
-      stderr.write(`grid ${cells}: ${summary.iterations.toLocaleString('en-US')} iterations, nu_hot ${nu}\n`);
+      stderr.write(`grid ${cells}: ${formatCount(summary.iterations)} iterations, nu_hot ${nu}\n`);
       if (summary.end !== 'target') {
         const why = summary.end === 'blow-up' ? 'was stopped by the solver\'s divergence guard' : 'used its iteration budget';
         throw new InputError(`the healthy case at Ra ${ra} on grid ${cells} ${why}, so it cannot enter a grid study`,
