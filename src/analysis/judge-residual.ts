@@ -47,6 +47,8 @@ export const GROWTH_DECADES = 1;
 export const USEFUL_FACTOR = 100;
 /** Most points given to the cycle test. */
 export const OSCILLATION_POINTS = 1024;
+/** Fewest points a trend is fitted to; the window is stretched back to hold them (sparse logs). */
+export const MIN_TREND_POINTS = 5;
 
 export interface ResidualJudgeOptions {
   readonly window: number;
@@ -93,7 +95,10 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
   // The drop is measured from a peak that lies before the recent points: when the peak is among the
   // last five values (the residual is blowing up right now), falling "below the peak" means nothing.
   const peakIsRecent = !(memo.peakIteration < column.iterations[Math.max(segmentStart, end - 5)]);
-  const windowFrom = Math.max(judgedFrom, firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1));
+  // The window spans criteria.window iterations, stretched back to hold at least MIN_TREND_POINTS
+  // points for a solver that prints only every so many iterations.
+  const windowFrom = Math.max(judgedFrom, Math.min(
+    firstIndexAtOrAfter(column, judgedFrom, end, lastIteration - options.window + 1), end - MIN_TREND_POINTS));
   const windowLogs = logs(windowFrom, end, scratch.windowLogs);
   if (nowLog <= levelLog && !peakIsRecent) {
     const why = rule.target !== undefined && nowLog <= safeLog10(rule.target) && dropDecades < rule.drop
@@ -104,8 +109,8 @@ export function judgeResidual(column: SeriesColumn, memo: SegmentMemo, rule: Ser
     return with_('converged', `${info.name} ${why}`, { ...common, ...reached });
   }
 
-  const trend = end - windowFrom < 5 ? null : trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, false, scratch);
-  if (trend === null) return with_('undecided', `too few points in the last ${formatCount(options.window)} iterations`, common);
+  const trend = end - windowFrom < MIN_TREND_POINTS ? null : trendFields(column, windowFrom, end, windowLogs, levelLog, nowLog, false, scratch);
+  if (trend === null) return with_('undecided', `too few points after start-up to judge a trend (${end - windowFrom} of ${MIN_TREND_POINTS})`, common);
   const slope = trend.slope;
   let minLog = Number.POSITIVE_INFINITY;
   let minAt = windowFrom;

@@ -94,7 +94,8 @@ function blockTail(values: ArrayLike<number>, start: number, to: number): { erro
     sign = s;
     resolution = Math.min(resolution, Math.abs(step));
   }
-  if (sign === 0) return { error: 0, ratio: 0, resolution: 0 };
+  // Unchanged over the whole window: the value is known only to its last printed digit.
+  if (sign === 0) return { error: 0, ratio: 0, resolution: printedResolution(values[to - 1]) };
   const last = values[to - 1];
   // Three blocks of equal length, anchored at the newest sample.
   const length = Math.floor((to - 1 - start) / 3);
@@ -113,4 +114,19 @@ function blockTail(values: ArrayLike<number>, start: number, to: number): { erro
   const ratio = Math.max(c2 / c1, c3 / c2);
   if (!(ratio < 1)) return null;
   return { error: (sign * c3 * ratio) / (1 - ratio), ratio, resolution };
+}
+
+/**
+ * The place value of the last significant digit of a number as it was most likely printed: the
+ * shortest decimal that reads back as the same double (ECMAScript Number::toString), so 2.17334 →
+ * 1e-5, 120 → 1, 1.2e-7 → 1e-8. A log that printed trailing zeros ("2.173340") had a finer
+ * resolution than this; erring coarse keeps an interval honest. Non-finite or zero → 0.
+ */
+export function printedResolution(value: number): number {
+  if (!Number.isFinite(value) || value === 0) return 0;
+  const [mantissa, exponentText] = Math.abs(value).toString().split('e');
+  const exponent = exponentText === undefined ? 0 : Number(exponentText);
+  const point = mantissa.indexOf('.');
+  const decimals = point < 0 ? 0 : mantissa.length - point - 1;
+  return 10 ** (exponent - decimals);
 }

@@ -4,7 +4,7 @@
  * the tail of the geometric series of the changes).
  */
 import { describe, expect, it } from 'vitest';
-import { remainingChange } from '../../src/analysis/remaining-change.js';
+import { printedResolution, remainingChange } from '../../src/analysis/remaining-change.js';
 
 const iterationsOf = (n: number): Float64Array => Float64Array.from({ length: n }, (_, k) => k + 1);
 /** Printed with `digits` significant digits, as a solver log would. */
@@ -74,5 +74,30 @@ describe('remainingChange', () => {
     const copy = values.slice();
     remainingChange(values, iterationsOf(600), 0, 600, 200);
     expect(values).toEqual(copy);
+  });
+});
+
+describe('printedResolution (the last printed digit, from ECMAScript Number::toString)', () => {
+  it.each([
+    [2.17334, 1e-5],
+    [120, 1],
+    [1.2e-7, 1e-8],
+    [-0.047, 1e-3],
+    [3e21, 1e21],
+    [0, 0],
+    [Number.NaN, 0],
+  ])('%s → %s', (value, expected) => {
+    const got = printedResolution(value);
+    if (expected === 0) expect(got).toBe(0);
+    else expect(got / expected).toBeCloseTo(1, 12);
+  });
+
+  it('gives a quantity that did not change at all over the window the half-width of its last printed digit, not ±0', () => {
+    const values = Float64Array.from({ length: 400 }, (_, k) => (k < 100 ? 2 + 1 / (k + 1) : 2.17334));
+    const iterations = Float64Array.from({ length: 400 }, (_, k) => k + 1);
+    const change = remainingChange(values, iterations, 0, 400, 200);
+    expect(change).not.toBeNull();
+    expect(change!.windowChange).toBe(0);
+    expect(change!.resolution / 1e-5).toBeCloseTo(1, 12);
   });
 });
