@@ -219,7 +219,12 @@ function residualChart(
     const points = downsample(column, window.from, threshold, log10OrNaN);
     return { name: column.info.name, style: styleOf.get(column.info.name) ?? 0, x: points.x, y: points.y };
   });
-  const targets = [...new Set(shown.map((column) => bySeries.get(column.info.name)?.target).filter((t): t is number => t !== undefined && t > 0 && Number.isFinite(t)))].slice(0, 3);
+  // A series blowing up has no meaningful target: a level derived from its peak only chases it up.
+  const targets = [...new Set(shown
+    .map((column) => bySeries.get(column.info.name))
+    .filter((d) => d !== undefined && d.state !== 'diverging' && d.state !== 'failed')
+    .map((d) => d?.target)
+    .filter((t): t is number => t !== undefined && t > 0 && Number.isFinite(t)))].slice(0, 3);
   const levels: ChartLevel[] = targets.map((target) => ({ y: Math.log10(target), kind: 'target', label: `target ${formatResidual(target, 2)}` }));
   const { min, max } = extent(lines, levels.map((level) => level.y));
   if (!(max >= min)) return emptyChart('no finite residual values to plot');

@@ -193,6 +193,15 @@ describe('buildViewModel: residual chart', () => {
     expect(chart.yMin).toBe(-6);
   });
 
+  it('draws no target for a residual that is blowing up (a level derived from its peak would chase it)', () => {
+    const diagnosis = runDiagnosis({ series: [
+      seriesDiagnosis('res_p', { state: 'diverging', target: 3.6e10 }),
+      seriesDiagnosis('res_u', { state: 'converging', target: 1e-6 }),
+    ] });
+    const chart = buildViewModel(diagnosis, steadyStore(100).snapshot(), view(), pace(), size, 0, context).residuals;
+    expect(chart.levels).toEqual([{ y: -6, kind: 'target', label: 'target 1e-6' }]);
+  });
+
   it('shows only the last N iterations in the recent span', () => {
     const chart = buildViewModel(runDiagnosis(), steadyStore(5000).snapshot(), view({ span: 'recent', recentIterations: 1000 }), pace(), size, 0, context).residuals;
     expect(chart.xMin).toBe(4000);
