@@ -49,7 +49,9 @@ export function reportCharts(run: ReportRun, runIndex: number, width = 760): Rep
   if (residuals.length > 0) {
     const targets = new Map<number, string[]>();
     for (const c of residuals) {
-      const target = diagnoses.get(c.info.name)?.target;
+      const diagnosis = diagnoses.get(c.info.name);
+      // A series blowing up has no meaningful target: a level derived from its peak only chases it up.
+      const target = diagnosis?.state === 'diverging' || diagnosis?.state === 'failed' ? undefined : diagnosis?.target;
       if (target !== undefined && target > 0 && Number.isFinite(target)) targets.set(target, [...(targets.get(target) ?? []), c.info.name]);
     }
     const rules: ChartRule[] = [...targets].map(([value, names]) => ({
