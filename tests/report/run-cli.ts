@@ -3,6 +3,7 @@
 import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { seededRandom } from '../analysis/run-fixtures.js';
 
 export const CLI = resolve('dist/src/cli/main.js');
 
@@ -28,16 +29,10 @@ export function runCli(args: readonly string[], timeoutMs = 20_000): Promise<Cli
   });
 }
 
-/** Deterministic pseudo-noise in [-0.5, 0.5): mulberry32 (Ettinger, public domain), seeded. */
+/** Deterministic pseudo-noise in [-0.5, 0.5), from the seeded generator the analysis tests use. */
 export function seededNoise(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
+  const random = seededRandom(seed);
+  return () => random() - 0.5;
 }
 
 /**
