@@ -185,7 +185,7 @@ export async function runDemo(options: DemoOptions, stdout: NodeJS.WritableStrea
         closeSync(fd);
       }
       const ending = { target: 'reached the solver\'s target', 'blow-up': 'stopped by the solver\'s divergence guard', budget: 'used its iteration budget' }[summary.end];
-      stderr.write(`${title}: ${summary.iterations} iterations (${ending})${options.out === undefined ? '' : `, log in ${options.out}`}\n`);
+      stderr.write(`${title}: ${formatCount(summary.iterations)} iterations (${ending})${options.out === undefined ? '' : `, log in ${options.out}`}\n`);
       const runCheck = await loadView<RunCheck>('./check-command.js', 'runCheck', 'check');
       return await runCheck({ logs: [logPath], json: false, criteria: DEFAULT_CRITERIA, parserFiles: [], parserId, kindOverrides: NO_OVERRIDES, stdout });
     }
