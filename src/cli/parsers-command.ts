@@ -81,7 +81,7 @@ async function testSpec(specArg: string, logs: readonly string[], overrides: { r
   // The same reader as every other command (gzip by magic bytes, CRLF, invalid UTF-8, stdin).
   const warnings: string[] = [];
   await openLineSource({ paths: logs, follow: false }).run({
-    onLines: (lines) => { for (const line of lines) parser.pushLine(line); },
+    onLines: (lines) => parser.pushBatch(lines),
     onEvent: (event) => {
       // The next file of a restart chain is a restart.
       if (event.type === 'opened' && event.index > 0) parser.noteRestart();

@@ -28,6 +28,7 @@ import { open, stat, type FileHandle } from 'node:fs/promises';
 import type { Stats } from 'node:fs';
 import type { SourceEvent } from './line-source.js';
 import type { LineSplitter } from './line-splitter.js';
+import type { LineBatch } from './line-batch.js';
 import { readFileChunks, type ChunkBuffers } from './read-file-chunks.js';
 import { errorCodeOf, isSystemError, readFailure } from './read-failure.js';
 
@@ -38,7 +39,7 @@ export interface FileFollowerOptions {
   readonly splitter: LineSplitter;
   readonly buffers: ChunkBuffers;
   /** Complete lines, in order (never called with an empty list). */
-  readonly deliver: (lines: string[]) => void;
+  readonly deliver: (lines: LineBatch) => void;
   readonly event: (event: SourceEvent) => void;
   /** Poll with this interval (ms) instead of trusting change events. */
   readonly pollMs?: number;
@@ -301,8 +302,7 @@ export class FileFollower {
     const { splitter, deliver } = this.options;
     this.offset = await readFileChunks(handle, this.offset, this.options.buffers, (chunk) => {
       this.rememberTail(chunk);
-      const lines = splitter.push(chunk);
-      if (lines.length > 0) deliver(lines);
+      splitter.pushBatches(chunk, deliver);
       onBytes?.(chunk.length);
     }, { shouldStop });
   }
@@ -328,8 +328,7 @@ export class FileFollower {
   }
 
   private flushPartial(): void {
-    const lines = this.options.splitter.end();
-    if (lines.length > 0) this.options.deliver(lines);
+    this.options.splitter.endBatches(this.options.deliver);
   }
 
   private async closeHandle(): Promise<void> {

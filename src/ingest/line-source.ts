@@ -2,6 +2,7 @@
  * The contract between ingest and everything after it: a source delivers complete lines, in order,
  * and tells what happened to the file along the way.
  */
+import type { LineBatch } from './line-batch.js';
 
 export type SourceEvent =
   /** The file does not exist yet; the source waits for it. */
@@ -23,8 +24,9 @@ export type SourceEvent =
   | { readonly type: 'end' };
 
 export interface LineSink {
-  /** Complete lines, in order, without their terminators (LF and CRLF both stripped). */
-  onLines(lines: readonly string[]): void;
+  /** Complete lines, in order, without their terminators (LF and CRLF both stripped), as byte
+   * ranges; valid only during the call (see LineBatch). */
+  onLines(lines: LineBatch): void;
   onEvent(event: SourceEvent): void;
 }
 

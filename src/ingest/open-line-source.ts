@@ -162,12 +162,12 @@ class LogLineSource implements LineSource {
     const splitter = this.splitterFor('standard input', sink);
     sink.onEvent({ type: 'opened', path: '-', index: 0 });
     try {
-      await readStreamChunks(stream, (chunk) => deliver(sink, splitter.push(chunk)), { signal: this.abort.signal });
+      await readStreamChunks(stream, (chunk) => splitter.pushBatches(chunk, (batch) => sink.onLines(batch)), { signal: this.abort.signal });
     } catch (error) {
       if (errorCodeOf(error) !== undefined && !(error instanceof SettleError)) throw readFailure('standard input', error);
       throw error;
     }
-    deliver(sink, splitter.end());
+    splitter.endBatches((batch) => sink.onLines(batch));
   }
 
   /** Open a file read-only and check it is something we can read; InputError otherwise. With
@@ -211,7 +211,7 @@ class LogLineSource implements LineSource {
   private async readOpened(path: string, handle: FileHandle, stats: Stats, sink: LineSink,
     progress: ProgressReporter, following: boolean): Promise<void> {
     const splitter = this.splitterFor(path, sink);
-    const onChunk = (chunk: Buffer): void => deliver(sink, splitter.push(chunk));
+    const onChunk = (chunk: Buffer): void => splitter.pushBatches(chunk, (batch) => sink.onLines(batch));
     try {
       if (!stats.isFile()) {
         await readStreamChunks(handle.createReadStream({ autoClose: false }), onChunk, { signal: this.abort.signal });
@@ -243,7 +243,7 @@ class LogLineSource implements LineSource {
     }
     // Closed in the middle: a line cut by the interruption is not a real last line.
     if (this.closing) splitter.discardPartial();
-    else deliver(sink, splitter.end());
+    else splitter.endBatches((batch) => sink.onLines(batch));
   }
 
   /** gzip by its magic number. A `.gz` name on plain text is read as text, with a warning. */
@@ -313,10 +313,6 @@ async function readHead(handle: FileHandle): Promise<Buffer> {
   const head = Buffer.alloc(2);
   const { bytesRead } = await handle.read(head, 0, 2, 0);
   return head.subarray(0, bytesRead);
-}
-
-function deliver(sink: LineSink, lines: string[]): void {
-  if (lines.length > 0) sink.onLines(lines);
 }
 
 function warningText(path: string, warning: SplitterWarning): string {

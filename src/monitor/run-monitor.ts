@@ -7,6 +7,7 @@
  */
 import { openLineSource } from '../ingest/open-line-source.js';
 import type { LineSource, SourceEvent } from '../ingest/line-source.js';
+import { LineBatch } from '../ingest/line-batch.js';
 import { loadParserSpecs } from '../parse/load-parser-specs.js';
 import { chooseParser } from '../parse/choose-parser.js';
 import type { ParserChoice, ParseStats, RecordParser } from '../parse/record-parser.js';
@@ -103,7 +104,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     if (restartBeforeParser) parser.noteRestart();
     const lines = pending;
     pending = [];
-    feed(lines);
+    feed(LineBatch.of(lines));
     judgeWhenQuiet();
   }
 
@@ -117,10 +118,9 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     }
   }
 
-  function feed(lines: readonly string[]): void {
+  function feed(lines: LineBatch): void {
     addedInBatch = 0;
-    const p = parser as RecordParser;
-    for (const line of lines) p.pushLine(line);
+    (parser as RecordParser).pushBatch(lines);
     if (addedInBatch > 0) events.emit('records', addedInBatch);
   }
 
@@ -136,7 +136,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     }, QUIET_JUDGE_MS);
   }
 
-  function onLines(lines: readonly string[]): void {
+  function onLines(lines: LineBatch): void {
     pace.addLines(lines.length);
     if (parser !== undefined) {
       feed(lines);

@@ -15,6 +15,7 @@ import { splitFieldBounds, splitFields } from './split-fields.js';
 /** A table cell with no number in it. */
 const EMPTY = null;
 import { RecordAssembler } from './record-assembler.js';
+import type { LineBatch } from '../ingest/line-batch.js';
 
 export type RecordParserFactory = (onRecord: RecordSink) => RecordParser;
 
@@ -172,6 +173,10 @@ class SpecParser implements RecordParser {
     else if (plan.tableHeader !== undefined) matched = this.pushTableLine(line);
     else matched = this.pushJsonLine(line);
     if (!matched) assembler.noteUnmatched(line);
+  }
+
+  pushBatch(batch: LineBatch): void {
+    for (let i = 0; i < batch.count; i++) this.pushLine(batch.text(i));
   }
 
   private pushRuleLine(line: string): boolean {

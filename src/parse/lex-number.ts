@@ -92,6 +92,66 @@ export function lexNumberIn(text: string, start: number, end: number): number | 
   return negative ? -value : value;
 }
 
+/**
+ * `lexNumberIn` on the bytes `start` to `end` (exclusive) of an ASCII line held in a buffer: the
+ * byte read path (no string per line). Same forms, same results (property-tested against
+ * `lexNumber` on the decoded text). The loop mirrors `lexNumberIn` for the plain decimal forms;
+ * every other form decodes the token and goes through the string path.
+ */
+export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): number | undefined {
+  let i = start;
+  let code = start < end ? bytes[start] : -1;
+  let negative = false;
+  if (code === MINUS || code === PLUS) { negative = code === MINUS; i++; }
+  let mantissa = 0;
+  let significant = 0;
+  let fractionDigits = 0;
+  let sawDigit = false;
+  for (; i < end; i++) {
+    code = bytes[i] - ZERO;
+    if (code < 0 || code > 9) break;
+    mantissa = mantissa * 10 + code;
+    if (mantissa !== 0) significant++;
+    sawDigit = true;
+  }
+  if (i < end && bytes[i] === DOT) {
+    for (i++; i < end; i++) {
+      code = bytes[i] - ZERO;
+      if (code < 0 || code > 9) break;
+      mantissa = mantissa * 10 + code;
+      if (mantissa !== 0) significant++;
+      fractionDigits++;
+      sawDigit = true;
+    }
+  }
+  if (!sawDigit) return lexSlow(latin1(bytes, start, end));
+  let exponent = 0;
+  if (i < end) {
+    code = bytes[i] | 0x20;
+    if (code !== LOWER_E && code !== LOWER_D) return lexSlow(latin1(bytes, start, end));
+    i++;
+    let exponentNegative = false;
+    code = i < end ? bytes[i] : -1;
+    if (code === MINUS || code === PLUS) { exponentNegative = code === MINUS; i++; }
+    const digitsStart = i;
+    for (; i < end; i++) {
+      code = bytes[i] - ZERO;
+      if (code < 0 || code > 9) return lexSlow(latin1(bytes, start, end));
+      exponent = exponent * 10 + code;
+    }
+    if (i === digitsStart) return lexSlow(latin1(bytes, start, end));
+    if (exponentNegative) exponent = -exponent;
+  }
+  exponent -= fractionDigits;
+  if (significant > 15 || exponent > 22 || exponent < -22) return lexNumber(latin1(bytes, start, end));
+  const value = exponent >= 0 ? mantissa * POWERS_OF_TEN[exponent] : mantissa / POWERS_OF_TEN[-exponent];
+  return negative ? -value : value;
+}
+
+function latin1(bytes: Uint8Array, start: number, end: number): string {
+  return String.fromCharCode.apply(null, bytes.subarray(start, end) as unknown as number[]);
+}
+
 const ZERO = 48;
 const DOT = 46;
 const MINUS = 45;

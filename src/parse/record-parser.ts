@@ -3,6 +3,7 @@
  * Implementations are compiled from declarative specs (parsers/*.json) or inferred from a log.
  */
 import type { LogRecord, SeriesInfo } from './log-record.js';
+import type { LineBatch } from '../ingest/line-batch.js';
 
 export type RecordSink = (record: LogRecord) => void;
 
@@ -24,6 +25,9 @@ export interface RecordParser {
   readonly id: string;
   /** Feed one complete line (no terminator). Completed records go to the sink given at creation. */
   pushLine(line: string): void;
+  /** Feed a batch of complete lines (the read path): the same records as `pushLine` on each
+   * line's text, but ASCII lines may be matched on their bytes without building strings. */
+  pushBatch(batch: LineBatch): void;
   /** The source ended: emit any record still open (e.g. the last block of a block format). */
   finish(): void;
   /** The source restarted (file truncated or replaced, next file of a chain): the next record is

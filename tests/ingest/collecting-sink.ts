@@ -3,6 +3,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { LineSink, SourceEvent } from '../../src/ingest/line-source.js';
+import type { LineBatch } from '../../src/ingest/line-batch.js';
 
 export class CollectingSink implements LineSink {
   readonly lines: string[] = [];
@@ -11,7 +12,7 @@ export class CollectingSink implements LineSink {
   readonly log: Array<{ lines: readonly string[] } | { event: SourceEvent }> = [];
   batches = 0;
 
-  onLines(lines: readonly string[]): void {
+  onLines(lines: LineBatch): void {
     if (lines.length === 0) throw new Error('onLines called with no lines');
     this.batches += 1;
     this.lines.push(...lines);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { lexNumber, lexNumberIn } from '../../src/parse/lex-number.js';
+import { lexNumber, lexNumberBytes, lexNumberIn } from '../../src/parse/lex-number.js';
 
 // Expected values are exact: each text is a decimal (or special) spelling whose value is fixed by
 // the notation itself (123456789012345678 reads as the nearest double, 123456789012345680);
@@ -82,5 +82,21 @@ describe('lexNumber reads every form solvers print', () => {
       return Object.is(lexNumber(exp), Number(exp)) && Object.is(lexNumber(fixed), Number(fixed))
         && Object.is(lexNumber(exp.replace('e', 'D')), Number(exp));
     }), { numRuns: 3000 });
+  });
+
+  // The byte path must read exactly what the string path reads: checked on every form above and
+  // on random tokens built from the characters numbers are made of, inside a longer buffer so that
+  // reading past `end` would show.
+  it('reads the same from the bytes of an ASCII line as from its text (property)', () => {
+    const forms = ['1.5D-03', '-2.5+003', 'nan', '-1.#IND', '****', '*', '1.', '.5', '1e', '1e+', '12345678901234567890', '1e400', '2024-01', ' 7 ', ''];
+    const token = fc.oneof(
+      fc.constantFrom(...forms),
+      fc.array(fc.constantFrom('0', '1', '9', '.', 'e', 'E', 'd', 'D', '+', '-', '*', '#', 'n', 'a', 'i', 'f', ' '), { maxLength: 14 }).map((chars) => chars.join('')),
+      fc.double().map((x) => x.toExponential(6)),
+    );
+    fc.assert(fc.property(token, fc.constantFrom('', '9', 'e', '-', '5e'), (text, after) => {
+      const bytes = Buffer.from(`x${text}${after}`, 'latin1');
+      return Object.is(lexNumberBytes(bytes, 1, 1 + text.length), lexNumber(text));
+    }), { numRuns: 4000, seed: 20261201 });
   });
 });
