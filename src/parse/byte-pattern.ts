@@ -28,6 +28,8 @@
  *   the first choice backtracking tries. Otherwise, every smaller count leaves K at a position whose
  *   next byte was taken by X, so lies in X and not in FIRST(K); K must consume a byte there (or meet
  *   `$` before the end), so it fails: only the greedy count can succeed, as backtracking would find.
+ *   Also accepted: min >= 1, K begins with `\b` on every path, and X holds only word bytes (or only
+ *   non-word bytes): a smaller count puts `\b` between two bytes of X, where it fails.
  * - (G)? followed by K is accepted when K is trivial, or K is not nullable and FIRST(G) ∩ FIRST(K)
  *   = ∅. Argument: when G matches (non-empty) and K is trivial, K succeeds and that is backtracking's
  *   first choice. When G matches but K then fails, backtracking would retry K at G's start, whose
@@ -377,9 +379,11 @@ interface Continuation {
   readonly nullable: boolean;
   /** Every element skippable and no assertion outside optional groups: it succeeds anywhere. */
   readonly trivial: boolean;
+  /** Its first element, on every path, is `\b`. */
+  readonly boundaryFirst: boolean;
 }
 
-const PATTERN_END: Continuation = { first: emptySet(), nullable: true, trivial: true };
+const PATTERN_END: Continuation = { first: emptySet(), nullable: true, trivial: true, boundaryFirst: false };
 
 /** Continuation before `nodes` given `after` follows them; throws Refused when a choice point in
  *  `nodes` is not provably equal to backtracking. */
@@ -392,21 +396,21 @@ function checkSequence(nodes: readonly PatternNode[], after: Continuation): Cont
 function checkNode(node: PatternNode, k: Continuation): Continuation {
   switch (node.kind) {
     case 'lineEnd':
-      return { first: emptySet(), nullable: false, trivial: false };
+      return { first: emptySet(), nullable: false, trivial: false, boundaryFirst: false };
     case 'wordBoundary':
-      return { first: k.first, nullable: k.nullable, trivial: false };
+      return { first: k.first, nullable: k.nullable, trivial: false, boundaryFirst: true };
     case 'words': {
       const first = emptySet();
       for (const word of node.words) first[word[0]] = 1;
-      return { first, nullable: false, trivial: false };
+      return { first, nullable: false, trivial: false, boundaryFirst: false };
     }
     case 'atom': {
-      if (node.min < node.max && !k.trivial && (k.nullable || !disjoint(k.first, node.set))) refuse();
-      if (node.min > 0) return { first: node.set, nullable: false, trivial: false };
+      if (node.min < node.max && !k.trivial && (k.nullable || !disjoint(k.first, node.set)) && !boundaryStops(node.set, node.min, k)) refuse();
+      if (node.min > 0) return { first: node.set, nullable: false, trivial: false, boundaryFirst: false };
       const first = emptySet();
       unionInto(first, node.set);
       unionInto(first, k.first);
-      return { first, nullable: k.nullable, trivial: k.trivial };
+      return { first, nullable: k.nullable, trivial: k.trivial, boundaryFirst: false };
     }
     case 'group': {
       const inner = checkSequence(node.body, k);
@@ -416,9 +420,22 @@ function checkNode(node: PatternNode, k: Continuation): Continuation {
       const first = emptySet();
       unionInto(first, inner.first);
       unionInto(first, k.first);
-      return { first, nullable: k.nullable, trivial: k.trivial };
+      return { first, nullable: k.nullable, trivial: k.trivial, boundaryFirst: false };
     }
   }
+}
+
+/** X{min,max} (min >= 1) followed by `\b`, X all word bytes or all non-word bytes: every smaller
+ *  count leaves two bytes of X around the boundary test, so `\b` fails there. */
+function boundaryStops(set: Uint8Array, min: number, k: Continuation): boolean {
+  if (min < 1 || !k.boundaryFirst) return false;
+  let word = false;
+  let other = false;
+  for (let b = 0; b < 256; b++) {
+    if (set[b] === 0) continue;
+    if (WORD_SET[b] !== 0) word = true; else other = true;
+  }
+  return !(word && other);
 }
 
 // ---------------------------------------------------------------------------------------------
