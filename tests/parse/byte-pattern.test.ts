@@ -68,6 +68,7 @@ const USER_PATTERNS = [
   '[\\]\\[]+',
   '[--z]+',
   '[^]',
+  'x[]?y',
   '}',
   '\\$(?<amount>\\d+)',
   '(?<t>\\t+)',
@@ -190,6 +191,23 @@ describe('random patterns: compiled ones agree with V8, the rest are refused, no
     }), { numRuns: 3000, seed: 0xb17e5 });
     // The check above is only meaningful if a good share of the random patterns compiles.
     expect(compiled).toBeGreaterThan(600);
+  });
+});
+
+describe('arbitrary strings of regular-expression characters', () => {
+  const character = fc.constantFrom('a', 'b', '1', ' ', ':', '(', ')', '?', '<', '>', '=', '!', '*', '+', '{', '}', '[', ']',
+    '^', '$', '|', '\\', '.', '-', ',', 's', 'S', 'd', 'w', 'b', 'B', 'k', 't', '0', '2', 'x', 'u', 'c');
+  const source = fc.array(character, { maxLength: 12 }).map((chars) => chars.join(''));
+  const line = fc.array(fc.constantFrom('a', 'b', '1', ' ', ':', '<', '=', '{', '}', ']', '[', '-', 'x', '\\', '.', '\t'), { maxLength: 10 })
+    .map((pieces) => pieces.join(''));
+
+  it('never make the compiler throw; what compiles agrees with V8 (seeded)', () => {
+    fc.assert(fc.property(source, fc.array(fc.tuple(line, fc.nat(), fc.nat(15)), { minLength: 10, maxLength: 10 }), (text, cases) => {
+      const byte = compileBytePattern(text);
+      if (byte === undefined) return;
+      const regex = new RegExp(text, 'dg');
+      for (const [subject, fromSeed, pad] of cases) compareOn(text, byte, regex, subject, fromSeed % 4 === 0 ? fromSeed % (subject.length + 2) : 0, pad);
+    }), { numRuns: 5000, seed: 0xfa11 });
   });
 });
 
