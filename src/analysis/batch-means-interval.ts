@@ -13,7 +13,7 @@
  *
  * @example batchMeansInterval(values, 0, 4000) // → { mean: 1.998, halfWidth: 0.041, batches: 20, batchSize: 200 }
  */
-import tQuantile from '@stdlib/stats-base-dists-t-quantile';
+import { tQuantile } from './t-quantile.js';
 
 export interface BatchMeansInterval {
   readonly mean: number;

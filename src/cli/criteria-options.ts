@@ -5,7 +5,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { Command, Option } from 'commander';
-import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
+import { createRequire } from 'node:module';
+import type { ErrorObject, ValidateFunction } from 'ajv';
 import { DEFAULT_CRITERIA, type Criteria, type SeriesCriteria } from '../analysis/criteria.js';
 import { CRITERIA_SCHEMA } from '../analysis/criteria-schema.js';
 import { shorten, SpecError, UsageError } from '../errors.js';
@@ -69,7 +70,8 @@ let validator: ValidateFunction | undefined;
 
 function validateFile(value: unknown): string[] {
   if (validator === undefined) {
-    const Ajv = AjvModule.default;
+    // Loaded on first use (a criteria file): ajv takes a few hundredths of a second to load.
+    const Ajv = (createRequire(import.meta.url)('ajv') as typeof import('ajv')).default;
     validator = new Ajv({ allErrors: true, strict: false }).compile(CRITERIA_SCHEMA);
   }
   if (validator(value)) return [];

@@ -6,9 +6,11 @@
 import type { SeriesInfo, SeriesKind } from './log-record.js';
 import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
-import { capLine, groupNames, UserPattern } from './user-pattern.js';
+import { capLine, groupNames, leadingLiteral, PATTERN_LINE_LIMIT, UserPattern } from './user-pattern.js';
+import { compileBytePattern, type BytePattern } from './byte-pattern.js';
+import { ByteNames, latin1 } from './byte-names.js';
 import { globMatcher } from '../text/glob.js';
-import { lexNumber, lexNumberIn } from './lex-number.js';
+import { lexNumber, lexNumberBytes, lexNumberIn } from './lex-number.js';
 import { scanKeyValues } from './scan-key-values.js';
 import { splitFieldBounds, splitFields } from './split-fields.js';
 
@@ -53,6 +55,33 @@ interface Plan {
   readonly tableHeader?: UserPattern;
   readonly separator: TableSeparator;
   readonly jsonKeys?: ReadonlySet<string>;
+  /** The same rules matched on the bytes of ASCII lines, when every pattern compiles to a byte
+   * matcher (see byte-pattern.ts); otherwise undefined and every line is matched as text. */
+  readonly bytes?: BytePlan;
+}
+
+/** A rule whose pattern runs on bytes; capture k of the pattern is caps[2k], caps[2k + 1]. */
+interface ByteRule {
+  readonly rule: CompiledRule;
+  readonly pattern: BytePattern;
+  readonly caps: Int32Array;
+  /** Literal the line must contain before the pattern runs, when the pattern does not imply it
+   * (a spec's `contains` is a condition of its own: the text path checks it too). */
+  readonly contains?: Buffer;
+  readonly counters: readonly { readonly counter: CounterName; readonly cap: number }[];
+  readonly groups: readonly { readonly group: CompiledGroup; readonly cap: number }[];
+  readonly hasGroups: boolean;
+  readonly nameCap: number;
+  readonly valueCap: number;
+  readonly unitCap: number;
+}
+
+interface BytePlan {
+  readonly ignore: readonly BytePattern[];
+  readonly failure: readonly BytePattern[];
+  readonly rules: readonly ByteRule[];
+  /** Scratch captures for ignore and failure patterns. */
+  readonly caps: Int32Array;
 }
 
 function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
@@ -74,7 +103,9 @@ function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
     if (name !== undefined) counterOf.set(name, counter);
   }
   const rules = (spec.lines?.rules ?? []).map(compileRule);
+  const lineRules = spec.lines?.rules ?? [];
   return {
+    bytes: planBytes(spec.ignore ?? [], spec.failure ?? [], lineRules, rules),
     spec,
     ignore: (spec.ignore ?? []).map((p) => new UserPattern(p)),
     failure: (spec.failure ?? []).map((p) => new UserPattern(p)),
@@ -86,6 +117,42 @@ function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
     separator: spec.table?.separator ?? 'whitespace',
     jsonKeys: spec.jsonl?.keys ? new Set(spec.jsonl.keys) : undefined,
   };
+}
+
+/** The byte plan, or undefined when some pattern (or a keyValues rule) has no byte matcher. */
+function planBytes(ignore: readonly string[], failure: readonly string[], specRules: readonly LineRule[], rules: readonly CompiledRule[]): BytePlan | undefined {
+  if (rules.length === 0) return undefined;
+  const compileAll = (sources: readonly string[]): BytePattern[] | undefined => {
+    const compiled = sources.map((source) => compileBytePattern(source));
+    return compiled.every((p) => p !== undefined) ? compiled as BytePattern[] : undefined;
+  };
+  const ignorePatterns = compileAll(ignore);
+  const failurePatterns = compileAll(failure);
+  if (ignorePatterns === undefined || failurePatterns === undefined) return undefined;
+  const byteRules: ByteRule[] = [];
+  for (let r = 0; r < rules.length; r++) {
+    const rule = rules[r];
+    const specRule = specRules[r];
+    if (rule.type === 'keyValues' || !('match' in specRule)) return undefined;
+    const pattern = compileBytePattern(specRule.match);
+    if (pattern === undefined) return undefined;
+    const implied = leadingLiteral(specRule.match)?.text ?? '';
+    const contains = specRule.contains !== undefined && !implied.includes(specRule.contains) ? Buffer.from(specRule.contains, 'utf8') : undefined;
+    byteRules.push({
+      rule,
+      pattern,
+      caps: new Int32Array(Math.max(2, pattern.capsLength)),
+      contains,
+      counters: rule.counters.map((counter) => ({ counter, cap: pattern.groupIndex(counter) })),
+      groups: rule.groups.map((group) => ({ group, cap: pattern.groupIndex(group.group) })),
+      hasGroups: pattern.groupNames.length > 0,
+      nameCap: pattern.groupIndex(rule.nameGroup),
+      valueCap: pattern.groupIndex(rule.valueGroup),
+      unitCap: rule.unitGroup !== undefined ? pattern.groupIndex(rule.unitGroup) : -1,
+    });
+  }
+  const caps = new Int32Array(Math.max(2, ...[...ignorePatterns, ...failurePatterns].map((p) => p.capsLength)));
+  return { ignore: ignorePatterns, failure: failurePatterns, rules: byteRules, caps };
 }
 
 function compileRule(rule: LineRule): CompiledRule {
@@ -124,6 +191,7 @@ class SpecParser implements RecordParser {
   readonly id: string;
   private readonly assembler: RecordAssembler;
   private readonly info = new Map<string, SeriesInfo>();
+  private readonly byteNames = new ByteNames();
   private columns: string[] | null = null;
   private columnCounters: (CounterName | undefined)[] = [];
   private readonly fields: string[] = [];
@@ -176,7 +244,88 @@ class SpecParser implements RecordParser {
   }
 
   pushBatch(batch: LineBatch): void {
-    for (let i = 0; i < batch.count; i++) this.pushLine(batch.text(i));
+    const plan = this.plan.bytes;
+    if (plan === undefined || !batch.ascii) {
+      for (let i = 0; i < batch.count; i++) this.pushLine(batch.text(i));
+      return;
+    }
+    const { bytes, starts, ends } = batch;
+    for (let i = 0; i < batch.count; i++) this.pushLineBytes(plan, bytes, starts[i], ends[i]);
+  }
+
+  /** `pushLine` on the bytes of an ASCII line: the same rules in the same order, the same records
+   * (checked record for record on every sample log); text is made only for reports (failure and
+   * unmatched lines) and for names and units seen for the first time. */
+  private pushLineBytes(plan: BytePlan, bytes: Buffer, start: number, end: number): void {
+    const assembler = this.assembler;
+    assembler.lines++;
+    if (start === end) return;
+    // Patterns see at most PATTERN_LINE_LIMIT characters, as on the text path (ASCII: one byte each).
+    const seen = end - start > PATTERN_LINE_LIMIT ? start + PATTERN_LINE_LIMIT : end;
+    for (const pattern of plan.ignore) if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
+    for (const pattern of plan.failure) {
+      if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) { assembler.fail(latin1(bytes, start, end).trim()); return; }
+    }
+    let matched = false;
+    for (const byteRule of plan.rules) {
+      if (this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
+    }
+    if (!this.plan.blocks) assembler.close();
+    if (!matched) assembler.noteUnmatched(latin1(bytes, start, end));
+  }
+
+  /** One rule on the line's first `end - start` bytes (the pattern's view); `lineEnd` is the whole
+   * line's end (a `contains` condition looks at the whole line, as on the text path). */
+  private applyByteRule(byteRule: ByteRule, bytes: Buffer, start: number, end: number, lineEnd: number): boolean {
+    if (byteRule.contains !== undefined && !containsBytes(bytes, start, lineEnd, byteRule.contains)) return false;
+    const { pattern, caps, rule } = byteRule;
+    const matchEnd = pattern.exec(bytes, start, end, start, caps);
+    if (matchEnd < 0) return false;
+    const assembler = this.assembler;
+    if (rule.startsRecord) assembler.close();
+    for (const { counter, cap } of byteRule.counters) {
+      if (cap < 0 || caps[2 * cap] < 0) continue;
+      const value = lexNumberBytes(bytes, caps[2 * cap], caps[2 * cap + 1]);
+      if (value !== undefined) assembler.setCounter(counter, value);
+    }
+    if (rule.type === 'match') {
+      const values = assembler.current();
+      if (!byteRule.hasGroups) return true;
+      for (const { group, cap } of byteRule.groups) {
+        if (cap < 0 || caps[2 * cap] < 0) continue;
+        const value = lexNumberBytes(bytes, caps[2 * cap], caps[2 * cap + 1]);
+        if (value === undefined) continue;
+        this.register(group.series, group.def.kind, group.def.unit, group.def.label);
+        values.set(group.series, value);
+      }
+      return true;
+    }
+    this.pairKind = rule.kind;
+    this.addBytePair(byteRule, bytes);
+    if (rule.repeat) {
+      // Go on from where the match ended (one further after an empty match), as the text path does.
+      let from = matchEnd === pattern.matchStart ? matchEnd + 1 : matchEnd;
+      while (from < end) {
+        const next = pattern.exec(bytes, start, end, from, caps);
+        if (next < 0) break;
+        from = next === pattern.matchStart ? next + 1 : next;
+        this.addBytePair(byteRule, bytes);
+      }
+    }
+    return true;
+  }
+
+  private addBytePair(byteRule: ByteRule, bytes: Buffer): void {
+    const { caps, nameCap, valueCap, unitCap } = byteRule;
+    if (nameCap < 0 || valueCap < 0 || caps[2 * nameCap] < 0 || caps[2 * valueCap] < 0) return;
+    const value = lexNumberBytes(bytes, caps[2 * valueCap], caps[2 * valueCap + 1]);
+    if (value === undefined) return;
+    const name = this.byteNames.get(bytes, caps[2 * nameCap], caps[2 * nameCap + 1]);
+    // The unit's text is needed only while the series has none yet (see addValue).
+    const unit = unitCap >= 0 && caps[2 * unitCap] >= 0 && this.info.get(name)?.unit === undefined
+      ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1])
+      : undefined;
+    this.addValue(name, value, unit);
   }
 
   private pushRuleLine(line: string): boolean {
@@ -376,3 +525,15 @@ class SpecParser implements RecordParser {
   }
 }
 
+/** Does bytes[start, end) contain `literal`? */
+function containsBytes(bytes: Buffer, start: number, end: number, literal: Buffer): boolean {
+  const first = literal[0];
+  const last = end - literal.length;
+  for (let i = start; i <= last; i++) {
+    if (bytes[i] !== first) continue;
+    let k = 1;
+    while (k < literal.length && bytes[i + k] === literal[k]) k++;
+    if (k === literal.length) return true;
+  }
+  return false;
+}

@@ -77,15 +77,17 @@ export class SeriesStore {
     if (record.failure !== undefined && this.failureText === undefined) this.failureText = record.failure;
     // A crash line outside any iteration carries no values: it marks the run, it is not an iteration.
     if (record.values.size === 0 && record.failure !== undefined) return;
-    for (const [name, value] of record.values) {
+    const iteration = record.iteration;
+    // forEach, not for...of: no entry array per value (measured: a third of the cost of adding).
+    record.values.forEach((value, name) => {
       let column = this.columns.get(name);
       if (column === undefined) {
         column = new Column(infoOf(name), this.capacity);
         this.columns.set(name, column);
         this.ordered.push(column);
       }
-      column.push(record.iteration, value);
-    }
+      column.push(iteration, value);
+    });
     if (record.timeStep !== undefined) {
       const current = this.steps[this.steps.length - 1];
       if (current !== undefined && current.step === record.timeStep && !record.restart) {
