@@ -22,8 +22,9 @@
 import { open, stat, type FileHandle } from 'node:fs/promises';
 import type { Stats } from 'node:fs';
 import { SettleError, UsageError } from '../errors.js';
-import type { LineSink, LineSource, LineSourceOptions, SourceEvent } from './line-source.js';
+import type { LineSink, LineSource, LineSourceOptions } from './line-source.js';
 import { DEFAULT_MAX_LINE_BYTES, LineSplitter, type SplitterWarning } from './line-splitter.js';
+import { ProgressReporter } from './progress-reporter.js';
 import { ChunkBuffers, readFileChunks } from './read-file-chunks.js';
 import { readStreamChunks } from './read-stream-chunks.js';
 import { readGzipFile, startsWithGzipMagic } from './read-gzip-file.js';
@@ -71,34 +72,6 @@ function formatBytes(bytes: number): string {
   if (bytes >= 1024 * 1024 && bytes % (1024 * 1024) === 0) return `${bytes / (1024 * 1024)} MiB`;
   if (bytes >= 1024 && bytes % 1024 === 0) return `${bytes / 1024} KiB`;
   return `${bytes} bytes`;
-}
-
-/** Throttled `progress` events over the bytes of all files read from the start. */
-class ProgressReporter {
-  private done = 0;
-  private lastAt: number;
-  private emitted = false;
-
-  constructor(private readonly total: number, private readonly everyMs: number,
-    private readonly event: (event: SourceEvent) => void) {
-    this.lastAt = Date.now();
-  }
-
-  add(bytes: number): void {
-    this.done += bytes;
-    const now = Date.now();
-    if (now - this.lastAt >= this.everyMs) {
-      this.lastAt = now;
-      this.emitted = true;
-      this.event({ type: 'progress', bytesRead: this.done, totalBytes: Math.max(this.total, this.done) });
-    }
-  }
-
-  /** A closing 100 % event, only when the read was long enough to report progress at all. */
-  finish(): void {
-    if (this.emitted) this.event({ type: 'progress', bytesRead: this.done, totalBytes: Math.max(this.total, this.done) });
-    this.emitted = false;
-  }
 }
 
 class LogLineSource implements LineSource {
@@ -315,7 +288,8 @@ async function readHead(handle: FileHandle): Promise<Buffer> {
   return head.subarray(0, bytesRead);
 }
 
-function warningText(path: string, warning: SplitterWarning): string {
+/** What a splitter warning says to the user about a file. */
+export function warningText(path: string, warning: SplitterWarning): string {
   switch (warning.kind) {
     case 'line-cut':
       return `${path}: a line longer than ${formatBytes(warning.maxLineBytes)} was cut to that length (the rest of it was skipped; later long lines are cut without another warning)`;

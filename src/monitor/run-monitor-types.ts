@@ -8,6 +8,7 @@ import type { KindOverrides, ParserChoice, ParseStats } from '../parse/record-pa
 import type { SeriesStore } from '../series/series-store.js';
 import type { Criteria } from '../analysis/criteria.js';
 import type { RunDiagnosis, StateChange } from '../analysis/diagnosis.js';
+import type { RangeWorker } from '../parallel/read-in-parallel.js';
 
 export interface RunMonitorOptions {
   /** Files of one run in order (a restart chain), or ['-'] for standard input. */
@@ -29,6 +30,9 @@ export interface RunMonitorOptions {
   readonly storeCapacity?: number;
   /** Clock for pace figures (lines/s, last growth). Injected so tests can control it. Default Date.now. */
   readonly now?: () => number;
+  /** Reading one big finished file with worker threads (see parallel/read-in-parallel.ts): `false`
+   * turns it off; the fields override its defaults (tests use small ranges). */
+  readonly parallel?: false | { readonly workers?: number; readonly rangeBytes?: number; readonly minBytes?: number; readonly spawn?: () => RangeWorker };
 }
 
 export interface MonitorPace {

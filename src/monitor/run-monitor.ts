@@ -19,6 +19,8 @@ import type { RunDiagnosis } from '../analysis/diagnosis.js';
 import { PaceMeter } from './pace-meter.js';
 import { TypedEmitter } from './typed-emitter.js';
 import { InputError } from '../errors.js';
+import type { SeriesColumn } from '../series/series-column.js';
+import { PARALLEL_MIN_BYTES, worthReadingInParallel } from '../parallel/worth-reading-in-parallel.js';
 import type { MonitorPace, RunMonitor, RunMonitorEvents, RunMonitorOptions } from './run-monitor-types.js';
 
 /** Lines collected before the parser is chosen (fewer when the log is shorter or goes quiet). */
@@ -68,6 +70,40 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     if (analyse && isEvaluationPoint(store.records)) evaluate();
   }
 
+  /** A record joined from a worker's range (parallel read): as onRecord, without a LogRecord. */
+  function onJoinedRecord(iteration: number, restart: boolean, failure: string | undefined,
+    names: readonly string[], columns: unknown[], series: Uint32Array, values: Float64Array, from: number, to: number): void {
+    const added = store.addCompact(iteration, restart, failure, names, columns as (SeriesColumn | undefined)[], series, values, from, to, infoOf);
+    changedSinceEvaluation = true;
+    revision++;
+    if (!added) return;
+    addedInBatch++;
+    if (analyse && isEvaluationPoint(store.records)) evaluate();
+  }
+
+  /** Read the one finished file with worker threads when it is big enough (see readInParallel). */
+  async function readFileInParallel(): Promise<boolean> {
+    const path = options.paths[0];
+    const settings = options.parallel ?? parallelFromEnvironment();
+    if (options.follow || settings === false || options.paths.length !== 1 || path === '-') return false;
+    if (!(await worthReadingInParallel(path, settings.minBytes ?? PARALLEL_MIN_BYTES))) return false;
+    const { readInParallel } = await import('../parallel/read-in-parallel.js');
+    addedInBatch = 0;
+    await readInParallel({ path, detectionLines: DETECTION_LINES, ...settings }, {
+      choose: chooseFrom,
+      onLines: (batch) => onLines(batch),
+      addRecord: onJoinedRecord,
+      rangeJoined: (lines) => {
+        pace.addLines(lines);
+        pace.setRecords(store.records);
+        if (addedInBatch > 0) events.emit('records', addedInBatch);
+        addedInBatch = 0;
+      },
+      onEvent,
+    });
+    return true;
+  }
+
   function syncSeriesInfo(): void {
     if (parser === undefined) return;
     for (const info of parser.seriesInfo().values()) {
@@ -90,18 +126,26 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     return diagnosis;
   }
 
-  function startParser(): void {
-    if (detectionTimer !== undefined) clearTimeout(detectionTimer);
-    detectionTimer = undefined;
-    choice = chooseParser(pending, {
+  /** Choose and create the parser from the first lines (without feeding them). */
+  function chooseFrom(lines: readonly string[]): { choice: ParserChoice; parser: RecordParser } {
+    const chosen = chooseParser(lines, {
       specs,
       forcedId: options.parserId,
       overrides: options.kindOverrides,
       source: label,
     });
-    parser = choice.create(onRecord);
-    events.emit('parser', choice);
-    if (restartBeforeParser) parser.noteRestart();
+    const created = chosen.create(onRecord);
+    choice = chosen;
+    parser = created;
+    events.emit('parser', chosen);
+    return { choice: chosen, parser: created };
+  }
+
+  function startParser(): void {
+    if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+    detectionTimer = undefined;
+    const { parser: created } = chooseFrom(pending);
+    if (restartBeforeParser) created.noteRestart();
     const lines = pending;
     pending = [];
     feed(LineBatch.of(lines));
@@ -157,6 +201,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     pace.setRecords(store.records);
   }
 
+  let ran = false;
   let failure: unknown;
   /** Errors thrown inside a timer cannot reach run()'s caller directly: keep them and stop. */
   function guarded(action: () => void): void {
@@ -201,12 +246,15 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     label,
     store,
     async run(): Promise<RunDiagnosis> {
-      if (source !== undefined) throw new Error('run() called twice on one monitor');
-      source = openLineSource({ paths: options.paths, follow: options.follow, pollMs: options.pollMs, stdin: options.stdin });
-      await source.run({
-        onLines: (lines) => guarded(() => onLines(lines)),
-        onEvent: (event) => guarded(() => onEvent(event)),
-      });
+      if (source !== undefined || ran) throw new Error('run() called twice on one monitor');
+      ran = true;
+      if (!(await readFileInParallel())) {
+        source = openLineSource({ paths: options.paths, follow: options.follow, pollMs: options.pollMs, stdin: options.stdin });
+        await source.run({
+          onLines: (lines) => guarded(() => onLines(lines)),
+          onEvent: (event) => guarded(() => onEvent(event)),
+        });
+      }
       if (detectionTimer !== undefined) clearTimeout(detectionTimer);
       if (quietTimer !== undefined) clearTimeout(quietTimer);
       if (failure !== undefined) throw failure;
@@ -224,4 +272,18 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     on: (event, listener) => events.on(event, listener),
   };
   return monitor;
+}
+
+/** Developer knobs (benchmarks and end-to-end tests): SETTLE_READ_WORKERS=n sets the number of
+ * worker threads of a parallel read, 0 or 1 turns it off; SETTLE_READ_MIN_BYTES sets the smallest
+ * file read in parallel, SETTLE_READ_RANGE_BYTES the size of a range. */
+function parallelFromEnvironment(): false | { workers?: number; minBytes?: number; rangeBytes?: number } {
+  const count = (name: string): number | undefined => {
+    const raw = process.env[name];
+    const value = raw === undefined || raw === '' ? Number.NaN : Number(raw);
+    return Number.isInteger(value) && value >= 0 ? value : undefined;
+  };
+  const workers = count('SETTLE_READ_WORKERS');
+  if (workers !== undefined && workers < 2) return false;
+  return { workers, minBytes: count('SETTLE_READ_MIN_BYTES'), rangeBytes: count('SETTLE_READ_RANGE_BYTES') || undefined };
 }

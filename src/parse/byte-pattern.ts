@@ -65,6 +65,10 @@ export interface BytePattern {
   readonly matchStart: number;
   /** caps must have at least this many entries (2 × groupNames.length). */
   readonly capsLength: number;
+  /** For a pattern anchored at `^` that must consume a byte to match: the bytes a match can begin
+   * with. A search from lineStart on a non-empty line whose first byte is not in it fails, so a
+   * caller may skip the call (undefined: no such shortcut). */
+  readonly startBytes?: Uint8Array;
 }
 
 type ExecFunction = (buf: Uint8Array, lineStart: number, lineEnd: number, from: number, caps: Int32Array) => number;
@@ -537,7 +541,8 @@ class CompiledBytePattern implements BytePattern {
   readonly capsLength: number;
   readonly exec: ExecFunction;
 
-  constructor(readonly source: string, readonly groupNames: readonly string[], build: (self: CompiledBytePattern) => ExecFunction) {
+  constructor(readonly source: string, readonly groupNames: readonly string[], build: (self: CompiledBytePattern) => ExecFunction,
+    readonly startBytes?: Uint8Array) {
     this.capsLength = 2 * groupNames.length;
     this.exec = build(this);
   }
@@ -573,7 +578,8 @@ export function compileBytePattern(source: string): BytePattern | undefined {
     const tableNames = writer.tables.map((_, index) => `T${index}`);
     const factorySource = `"use strict";\nreturn function exec(buf, ls, le, from, caps) {\n${exec}};`;
     const factory = new Function(...tableNames, 'W', 'self', factorySource) as (...args: unknown[]) => ExecFunction;
-    return new CompiledBytePattern(source, parser.groupNames, (self) => factory(...writer.tables, WORD_SET, self));
+    const startBytes = parser.anchoredAtStart && !whole.nullable ? whole.first : undefined;
+    return new CompiledBytePattern(source, parser.groupNames, (self) => factory(...writer.tables, WORD_SET, self), startBytes);
   } catch (error) {
     if (error instanceof Refused) return undefined;
     // Anything else is a defect in this compiler; refusing keeps settle correct (V8 runs the pattern).

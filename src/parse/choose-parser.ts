@@ -67,7 +67,7 @@ function origin(spec: LoadedSpec): string {
 
 function choiceOf(spec: ParserSpec, explanation: string, overrides: KindOverrides): ParserChoice {
   const factory = compileSpec(spec, overrides);
-  return { id: spec.id, explanation, create: factory };
+  return { id: spec.id, explanation, create: factory, spec, overrides };
 }
 
 /** How well a spec's detection patterns fit the sample (undefined when it does not fit), and

@@ -18,6 +18,7 @@ import { splitFieldBounds, splitFields } from './split-fields.js';
 const EMPTY = null;
 import { RecordAssembler } from './record-assembler.js';
 import type { LineBatch } from '../ingest/line-batch.js';
+import type { RangeParsing, SeriesRegistration } from './range-parsing.js';
 
 export type RecordParserFactory = (onRecord: RecordSink) => RecordParser;
 
@@ -82,6 +83,20 @@ interface BytePlan {
   readonly rules: readonly ByteRule[];
   /** Scratch captures for ignore and failure patterns. */
   readonly caps: Int32Array;
+  /** By the first byte of a line: the patterns and rules that can match a line starting with it
+   * (anchored patterns whose start bytes exclude it are left out), in the same order. */
+  readonly byFirstByte: readonly LineProgram[];
+}
+
+interface LineProgram {
+  readonly ignore: readonly BytePattern[];
+  readonly failure: readonly BytePattern[];
+  readonly rules: readonly ByteRule[];
+}
+
+function programFor(byte: number, ignore: readonly BytePattern[], failure: readonly BytePattern[], rules: readonly ByteRule[]): LineProgram {
+  const may = (pattern: BytePattern): boolean => pattern.startBytes === undefined || pattern.startBytes[byte] !== 0;
+  return { ignore: ignore.filter(may), failure: failure.filter(may), rules: rules.filter((rule) => may(rule.pattern)) };
 }
 
 function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
@@ -152,7 +167,8 @@ function planBytes(ignore: readonly string[], failure: readonly string[], specRu
     });
   }
   const caps = new Int32Array(Math.max(2, ...[...ignorePatterns, ...failurePatterns].map((p) => p.capsLength)));
-  return { ignore: ignorePatterns, failure: failurePatterns, rules: byteRules, caps };
+  const byFirstByte = Array.from({ length: 128 }, (_, byte) => programFor(byte, ignorePatterns, failurePatterns, byteRules));
+  return { ignore: ignorePatterns, failure: failurePatterns, rules: byteRules, caps, byFirstByte };
 }
 
 function compileRule(rule: LineRule): CompiledRule {
@@ -192,6 +208,8 @@ class SpecParser implements RecordParser {
   private readonly assembler: RecordAssembler;
   private readonly info = new Map<string, SeriesInfo>();
   private readonly byteNames = new ByteNames();
+  /** Series registrations, recorded when this parser parses one range of a log (a worker). */
+  private registrations: SeriesRegistration[] | undefined;
   private columns: string[] | null = null;
   private columnCounters: (CounterName | undefined)[] = [];
   private readonly fields: string[] = [];
@@ -243,14 +261,14 @@ class SpecParser implements RecordParser {
     if (!matched) assembler.noteUnmatched(line);
   }
 
-  pushBatch(batch: LineBatch): void {
+  pushBatch(batch: LineBatch, from = 0, to = batch.count): void {
     const plan = this.plan.bytes;
     if (plan === undefined || !batch.ascii) {
-      for (let i = 0; i < batch.count; i++) this.pushLine(batch.text(i));
+      for (let i = from; i < to; i++) this.pushLine(batch.text(i));
       return;
     }
     const { bytes, starts, ends } = batch;
-    for (let i = 0; i < batch.count; i++) this.pushLineBytes(plan, bytes, starts[i], ends[i]);
+    for (let i = from; i < to; i++) this.pushLineBytes(plan, bytes, starts[i], ends[i]);
   }
 
   /** `pushLine` on the bytes of an ASCII line: the same rules in the same order, the same records
@@ -262,12 +280,13 @@ class SpecParser implements RecordParser {
     if (start === end) return;
     // Patterns see at most PATTERN_LINE_LIMIT characters, as on the text path (ASCII: one byte each).
     const seen = end - start > PATTERN_LINE_LIMIT ? start + PATTERN_LINE_LIMIT : end;
-    for (const pattern of plan.ignore) if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
-    for (const pattern of plan.failure) {
+    const program = plan.byFirstByte[bytes[start]];
+    for (const pattern of program.ignore) if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
+    for (const pattern of program.failure) {
       if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) { assembler.fail(latin1(bytes, start, end).trim()); return; }
     }
     let matched = false;
-    for (const byteRule of plan.rules) {
+    for (const byteRule of program.rules) {
       if (this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
     }
     if (!this.plan.blocks) assembler.close();
@@ -315,17 +334,28 @@ class SpecParser implements RecordParser {
     return true;
   }
 
+  /** `addValue` for a pair read from bytes, with one series lookup on the usual path (a known
+   * series, or one that already has its unit). */
   private addBytePair(byteRule: ByteRule, bytes: Buffer): void {
     const { caps, nameCap, valueCap, unitCap } = byteRule;
     if (nameCap < 0 || valueCap < 0 || caps[2 * nameCap] < 0 || caps[2 * valueCap] < 0) return;
     const value = lexNumberBytes(bytes, caps[2 * valueCap], caps[2 * valueCap + 1]);
     if (value === undefined) return;
     const name = this.byteNames.get(bytes, caps[2 * nameCap], caps[2 * nameCap + 1]);
-    // The unit's text is needed only while the series has none yet (see addValue).
-    const unit = unitCap >= 0 && caps[2 * unitCap] >= 0 && this.info.get(name)?.unit === undefined
-      ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1])
-      : undefined;
-    this.addValue(name, value, unit);
+    const plan = this.plan;
+    if (plan.counterOf.size > 0) {
+      const counter = plan.counterOf.get(name);
+      if (counter !== undefined) { this.pairsSeen++; this.assembler.setCounter(counter, value); return; }
+    }
+    const hasUnit = unitCap >= 0 && caps[2 * unitCap] >= 0;
+    const known = this.info.get(name);
+    if (known === undefined || (hasUnit && known.unit === undefined)) {
+      // New, or may get its first unit: the text path's rule, on the unit's text.
+      this.addValue(name, value, hasUnit ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1]) : undefined);
+      return;
+    }
+    this.pairsSeen++;
+    this.assembler.current().set(name, value);
   }
 
   private pushRuleLine(line: string): boolean {
@@ -405,14 +435,18 @@ class SpecParser implements RecordParser {
     this.pairsSeen++;
     const counter = this.plan.counterOf.size > 0 ? this.plan.counterOf.get(name) : undefined;
     if (counter !== undefined) { this.assembler.setCounter(counter, value); return; }
-    if (!this.info.has(name) || (unit !== undefined && unit !== '' && this.info.get(name)?.unit === undefined)) {
-      this.register(name, this.pairKind, unit === '' ? undefined : unit, undefined, true);
-    }
+    if (this.pairNeedsRegistration(name, unit)) this.register(name, this.pairKind, unit === '' ? undefined : unit, undefined, true);
     this.assembler.current().set(name, value);
+  }
+
+  /** A pair's series is (re)registered when it is new, or gets its first unit. */
+  private pairNeedsRegistration(name: string, unit: string | undefined): boolean {
+    return !this.info.has(name) || (unit !== undefined && unit !== '' && this.info.get(name)?.unit === undefined);
   }
 
   private register(name: string, ruleKind: SeriesKind | undefined, unit?: string, label?: string, replace = false): void {
     if (!replace && this.info.has(name)) return;
+    this.registrations?.push({ atRecord: this.assembler.emitted, name, ruleKind, unit, label, fromPair: replace });
     const declared = this.plan.spec.series?.[name];
     const info: { -readonly [K in keyof SeriesInfo]: SeriesInfo[K] } = { name, kind: this.plan.kindOf(name, ruleKind) };
     const finalUnit = unit ?? declared?.unit;
@@ -508,6 +542,64 @@ class SpecParser implements RecordParser {
 
   finish(): void {
     this.assembler.close();
+  }
+
+  rangeParsing(): RangeParsing | undefined {
+    const plan = this.plan;
+    // Table rows need the header before them; time steps carry from record to record.
+    if (plan.tableHeader !== undefined) return undefined;
+    if (plan.spec.counters?.step !== undefined || plan.spec.counters?.time !== undefined || plan.spec.counters?.inner !== undefined) return undefined;
+    if (plan.rules.some((rule) => rule.counters.some((counter) => counter !== 'iteration'))) return undefined;
+    const assembler = this.assembler;
+    return {
+      boundary: plan.blocks ? 'record' : 'line',
+      isBoundaryLine: (batch, i) => !plan.blocks || this.opensRecord(batch, i),
+      recordRegistrations: () => (this.registrations = []),
+      dependsOnEarlierRecords: () => assembler.dependsOnEarlierRecords,
+      totals: () => ({ ...assembler.stats(), lastIteration: assembler.lastIterationNumber }),
+      replayRegistrations: (registrations) => {
+        for (const r of registrations) {
+          if (!r.fromPair) this.register(r.name, r.ruleKind, r.unit, r.label);
+          else if (this.pairNeedsRegistration(r.name, r.unit)) this.register(r.name, r.ruleKind, r.unit, undefined, true);
+        }
+      },
+      resumeAfter: (totals) => assembler.resumeAfter(totals),
+    };
+  }
+
+  /** Would line i of the batch close the open record and open a new one (a rule marked
+   * startsRecord matches it, and it is neither empty, ignored nor a failure line)? */
+  private opensRecord(batch: LineBatch, i: number): boolean {
+    const plan = this.plan;
+    const bytes = plan.bytes;
+    if (bytes !== undefined && batch.ascii) {
+      const data = batch.bytes;
+      const start = batch.starts[i];
+      const end = batch.ends[i];
+      if (start === end) return false;
+      const seen = end - start > PATTERN_LINE_LIMIT ? start + PATTERN_LINE_LIMIT : end;
+      const program = bytes.byFirstByte[data[start]];
+      for (const pattern of program.ignore) if (pattern.exec(data, start, seen, start, bytes.caps) >= 0) return false;
+      for (const pattern of program.failure) if (pattern.exec(data, start, seen, start, bytes.caps) >= 0) return false;
+      for (const byteRule of program.rules) {
+        if (!byteRule.rule.startsRecord) continue;
+        if (byteRule.contains !== undefined && !containsBytes(data, start, end, byteRule.contains)) continue;
+        if (byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return true;
+      }
+      return false;
+    }
+    const line = batch.text(i);
+    if (line.length === 0) return false;
+    if (plan.ignore.some((pattern) => pattern.test(line)) || plan.failure.some((pattern) => pattern.test(line))) return false;
+    for (const rule of plan.rules) {
+      if (!rule.startsRecord) continue;
+      if (rule.type === 'keyValues') {
+        if (rule.contains === undefined || line.includes(rule.contains)) return true;
+      } else if ((rule.pattern as UserPattern).test(line)) {
+        return true;
+      }
+    }
+    return false;
   }
 
   noteRestart(): void {

@@ -34,8 +34,15 @@ export class RecordAssembler {
   lines = 0;
   unmatched = 0;
   records = 0;
+  /** Everything handed to the sink: records, and crash records that are not iterations. */
+  emitted = 0;
   restarts = 0;
   readonly unmatchedSample: string[] = [];
+  /** Set when a record came out differently because of what came before it in the log: an
+   * iteration number counted from the records before (the log gave none), or a crash record with
+   * no iteration of its own. A parse of a range that starts mid-log is exact only while this is
+   * false (see parse/range-parsing.ts). */
+  dependsOnEarlierRecords = false;
 
   constructor(private readonly sink: RecordSink, private readonly stepFromTime: boolean) {}
 
@@ -73,8 +80,10 @@ export class RecordAssembler {
     if (values.size === 0) {
       // Only a failure line: a record that carries the failure and no values. It is not an
       // iteration: it repeats the last iteration number and is not counted in `records`.
+      if (this.lastIteration === undefined) this.dependsOnEarlierRecords = true;
       const failure: LogRecord = { iteration: this.lastIteration ?? 0, values, failure: this.failureText };
       this.clearCounters();
+      this.emitted++;
       this.sink(failure);
       return;
     }
@@ -99,7 +108,10 @@ export class RecordAssembler {
       }
     }
     let iteration = this.iteration;
-    if (iteration === undefined) iteration = this.records + 1;
+    if (iteration === undefined) {
+      iteration = this.records + 1;
+      this.dependsOnEarlierRecords = true;
+    }
     const record: { -readonly [K in keyof LogRecord]: LogRecord[K] } = { iteration, values };
     if (step !== undefined) record.timeStep = step;
     if (inner !== undefined) record.inner = inner;
@@ -116,6 +128,7 @@ export class RecordAssembler {
     this.lastTime = time;
     this.clearCounters();
     this.records++;
+    this.emitted++;
     this.sink(record);
   }
 
@@ -148,6 +161,24 @@ export class RecordAssembler {
     if (this.unmatchedSample.length < SAMPLE_SIZE) {
       this.unmatchedSample.push(line.length > SAMPLE_LINE_LENGTH ? `${line.slice(0, SAMPLE_LINE_LENGTH - 1)}…` : line);
     }
+  }
+
+  /** Take over where a parse of the log's earlier ranges ended (elsewhere, e.g. in a worker), at a
+   * line that opens a record: the counts, the unmatched sample and the last iteration (what the
+   * next record's restart check compares with). Valid only for logs without time steps (see
+   * range-parsing.ts), where nothing else carries over from one record to the next. */
+  resumeAfter(range: { lines: number; unmatched: number; unmatchedSample: readonly string[]; records: number; restarts: number; lastIteration?: number }): void {
+    this.lines += range.lines;
+    this.unmatched += range.unmatched;
+    for (const line of range.unmatchedSample) if (this.unmatchedSample.length < SAMPLE_SIZE) this.unmatchedSample.push(line);
+    this.records += range.records;
+    this.restarts += range.restarts;
+    if (range.lastIteration !== undefined) this.lastIteration = range.lastIteration;
+  }
+
+  /** The last record's iteration (undefined before the first record). */
+  get lastIterationNumber(): number | undefined {
+    return this.lastIteration;
   }
 
   hasCounters(): boolean {

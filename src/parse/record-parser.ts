@@ -4,6 +4,8 @@
  */
 import type { LogRecord, SeriesInfo } from './log-record.js';
 import type { LineBatch } from '../ingest/line-batch.js';
+import type { RangeParsing } from './range-parsing.js';
+import type { ParserSpec } from './parser-spec.js';
 
 export type RecordSink = (record: LogRecord) => void;
 
@@ -25,9 +27,10 @@ export interface RecordParser {
   readonly id: string;
   /** Feed one complete line (no terminator). Completed records go to the sink given at creation. */
   pushLine(line: string): void;
-  /** Feed a batch of complete lines (the read path): the same records as `pushLine` on each
-   * line's text, but ASCII lines may be matched on their bytes without building strings. */
-  pushBatch(batch: LineBatch): void;
+  /** Feed a batch of complete lines (the read path), or its lines from..to-1: the same records as
+   * `pushLine` on each line's text, but ASCII lines may be matched on their bytes without building
+   * strings. */
+  pushBatch(batch: LineBatch, from?: number, to?: number): void;
   /** The source ended: emit any record still open (e.g. the last block of a block format). */
   finish(): void;
   /** The source restarted (file truncated or replaced, next file of a chain): the next record is
@@ -36,6 +39,9 @@ export interface RecordParser {
   /** Series seen so far, with their kind (after user overrides), unit and label. */
   seriesInfo(): ReadonlyMap<string, SeriesInfo>;
   stats(): ParseStats;
+  /** How this parser can parse a finished log in ranges (worker threads), or undefined when it
+   * cannot (table headers and time steps carry state from line to line). */
+  rangeParsing(): RangeParsing | undefined;
 }
 
 /** What parser was chosen for a log, and why (said to the user). */
@@ -46,6 +52,9 @@ export interface ParserChoice {
    * `inferred: whitespace table with 7 numeric columns`. */
   readonly explanation: string;
   create(onRecord: RecordSink): RecordParser;
+  /** The spec behind the parser (built-in, user or inferred), for rebuilding it in a worker. */
+  readonly spec: ParserSpec;
+  readonly overrides: KindOverrides;
 }
 
 /** User overrides of series kinds, as globs on series names (`--residual`, `--quantity`). */

@@ -101,6 +101,40 @@ export class SeriesStore {
     this.lastIterationSeen = record.iteration;
   }
 
+  /**
+   * Add one record given in compact form (the parallel read): the same as `add` for a record of a
+   * log without time steps whose values are `values[from..to)` of the series named
+   * `names[series[k]]`. `columns` caches the column of each name index (filled here; keep one per
+   * name table). Returns false for a crash record that is not an iteration (nothing added).
+   */
+  addCompact(
+    iteration: number, restart: boolean, failure: string | undefined,
+    names: readonly string[], columns: (SeriesColumn | undefined)[], series: Uint32Array, values: Float64Array, from: number, to: number,
+    infoOf: (name: string) => SeriesInfo,
+  ): boolean {
+    if (restart && this.recordCount > 0) this.restartIterations.push(iteration);
+    if (failure !== undefined && this.failureText === undefined) this.failureText = failure;
+    if (from === to && failure !== undefined) return false;
+    for (let k = from; k < to; k++) {
+      const id = series[k];
+      let column = columns[id] as Column | undefined;
+      if (column === undefined) {
+        const name = names[id];
+        column = this.columns.get(name);
+        if (column === undefined) {
+          column = new Column(infoOf(name), this.capacity);
+          this.columns.set(name, column);
+          this.ordered.push(column);
+        }
+        columns[id] = column;
+      }
+      column.push(iteration, values[k]);
+    }
+    this.recordCount++;
+    this.lastIterationSeen = iteration;
+    return true;
+  }
+
   /** Update a series' kind/unit/label (the parser may learn more as it reads). */
   describe(info: SeriesInfo): void {
     const column = this.columns.get(info.name);

@@ -122,6 +122,10 @@ function compareOn(source: string, pattern: BytePattern, regex: RegExp, line: st
   if (JSON.stringify(actual) !== JSON.stringify(expected)) {
     throw new Error(`${JSON.stringify(source)} on ${JSON.stringify(line)} from ${from}: byte matcher ${JSON.stringify(actual)}, V8 ${JSON.stringify(expected)}`);
   }
+  // The start-byte shortcut may only skip lines V8 does not match.
+  if (from === 0 && line.length > 0 && pattern.startBytes !== undefined && pattern.startBytes[line.charCodeAt(0)] === 0 && expected !== null) {
+    throw new Error(`${JSON.stringify(source)} on ${JSON.stringify(line)}: startBytes excludes its first byte, but V8 matches`);
+  }
 }
 
 function differential(source: string, numRuns: number, seed: number): void {
@@ -320,6 +324,15 @@ describe('BytePattern by hand (expected values checked against V8 in the same te
   it('an optional group that can only match empty does not take part (V8: undefined)', () => {
     expect(run('(?<x>a*)?b', 'b')).toEqual({ start: 0, end: 1, groups: [[-1, -1]] });
     expect(run('(?<x>a*)?b', 'aab')).toEqual({ start: 0, end: 3, groups: [[0, 2]] });
+  });
+
+  it('gives start bytes for anchored patterns that must consume a byte, and none otherwise', () => {
+    expect(compileBytePattern('^#')?.startBytes?.[35]).toBe(1);
+    expect(compileBytePattern('^#')?.startBytes?.[32]).toBe(0);
+    const residual = compileBytePattern('^\\s*residual\\s+(?<name>\\S+)')?.startBytes;
+    expect([residual?.[32], residual?.[9], residual?.[114], residual?.[109]]).toEqual([1, 1, 1, 0]);
+    expect(compileBytePattern('residual')?.startBytes).toBeUndefined();
+    expect(compileBytePattern('^\\s*')?.startBytes).toBeUndefined();
   });
 
   it('reports its groups, their indices and the caps size', () => {

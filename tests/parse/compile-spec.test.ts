@@ -6,7 +6,7 @@ import { linesOf, NO_OVERRIDES, plain, runChoice } from './parse-helpers.js';
 
 function run(spec: Omit<ParserSpec, 'id' | 'description' | 'detect'>, text: string, overrides: KindOverrides = NO_OVERRIDES) {
   const full: ParserSpec = { id: 'test', description: 'test spec', detect: { patterns: ['.'] }, ...spec };
-  return runChoice({ id: 'test', explanation: '', create: compileSpec(full, overrides) }, linesOf(text));
+  return runChoice({ id: 'test', explanation: '', create: compileSpec(full, overrides), spec: full, overrides }, linesOf(text));
 }
 
 describe('compiled parsers: counters and restarts', () => {

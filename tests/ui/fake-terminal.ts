@@ -49,7 +49,10 @@ export interface FakeMonitor extends RunMonitor {
 export function fakeMonitor(label: string, store = new SeriesStore()): FakeMonitor {
   const emitter = new TypedEmitter<RunMonitorEvents>();
   let latest = runDiagnosis();
-  const choice: ParserChoice = { id: 'settle-kv', explanation: 'test', create: () => { throw new Error('not used'); } };
+  const choice: ParserChoice = {
+    id: 'settle-kv', explanation: 'test', create: () => { throw new Error('not used'); },
+    spec: { id: 'settle-kv', description: 'test', detect: { patterns: ['.'] } }, overrides: { residual: [], quantity: [] },
+  };
   const monitor: FakeMonitor = {
     label,
     get store() {

@@ -1,0 +1,145 @@
+/**
+ * Parse one byte range of a finished log (the job of a worker thread; synchronous, so it can also
+ * run in the calling thread, as the tests do).
+ *
+ * The range [from, to) is nominal. Where it really starts and ends is fixed so that ranges meet
+ * without a gap or an overlap and each can be parsed by a fresh parser (see range-parsing.ts):
+ * - a range with from > 0 starts at the first boundary line that starts at or after `from` (the
+ *   lines before it finish the previous range's last record);
+ * - a range ends just before the first boundary line that starts at or after `to`, or at the end
+ *   of the file; the next range starts there, by the same rule.
+ * A range after the first whose records depend on earlier ones (see RangeParsing) stops and says
+ * so (`handover`): the caller parses the rest of the log sequentially from the range's start.
+ *
+ * Cost: one pass over the range's bytes plus the few lines up to the next boundary line; memory:
+ * one 1 MiB read buffer and the records of one chunk.
+ */
+import { closeSync, openSync, readSync } from 'node:fs';
+import { LineSplitter, type SplitterWarning } from '../ingest/line-splitter.js';
+import type { LineBatch } from '../ingest/line-batch.js';
+import { CHUNK_BYTES } from '../ingest/read-file-chunks.js';
+import { compileSpec } from '../parse/compile-spec.js';
+import type { ParserSpec } from '../parse/parser-spec.js';
+import type { KindOverrides } from '../parse/record-parser.js';
+import type { RangeParsing, RangeTotals, SeriesRegistration } from '../parse/range-parsing.js';
+import { RecordChunkBuilder, type RecordChunk } from './record-chunk.js';
+
+export interface RangeJob {
+  readonly path: string;
+  readonly spec: ParserSpec;
+  readonly overrides: KindOverrides;
+  /** Nominal start (0: the top of the file). */
+  readonly from: number;
+  /** Nominal end (the file's size or more: to the end of the file). */
+  readonly to: number;
+  readonly maxLineBytes?: number;
+  /** Records per chunk handed to `onChunk`. */
+  readonly chunkRecords?: number;
+}
+
+export interface RangeEnd {
+  /** Offset of the range's first line, or -1 when no boundary line starts in it (the range
+   * before covers its lines). */
+  readonly start: number;
+  /** Offset just after the range's last line. */
+  readonly end: number;
+  /** The range's records depend on earlier ones: its chunks must be dropped and the log parsed
+   * sequentially from `start`. */
+  readonly handover: boolean;
+  readonly totals: RangeTotals;
+  readonly warnings: readonly SplitterWarning['kind'][];
+}
+
+const DEFAULT_CHUNK_RECORDS = 16_384;
+
+export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void): RangeEnd {
+  const builder = new RecordChunkBuilder();
+  const parser = compileSpec(job.spec, job.overrides)((record) => builder.add(record));
+  const ranges = parser.rangeParsing() as RangeParsing;
+  const registrations = ranges.recordRegistrations();
+  let registrationsSent = 0;
+  const warnings: SplitterWarning['kind'][] = [];
+  const splitter = new LineSplitter({ maxLineBytes: job.maxLineBytes, onWarning: (w) => warnings.push(w.kind) });
+  const chunkRecords = job.chunkRecords ?? DEFAULT_CHUNK_RECORDS;
+  const first = job.from === 0;
+
+  let start = first ? 0 : -1;
+  let end = -1;
+  let handover = false;
+  /** Reading from from - 1: the first line delivered is the end of a line begun before `from`. */
+  let skipFirst = !first;
+  let lastOffset = 0;
+
+  const flush = (): void => {
+    const chunk = builder.take(registrations.slice(registrationsSent), lastOffset);
+    registrationsSent = registrations.length;
+    if (chunk.count > 0 || chunk.registrations.length > 0) onChunk(chunk);
+  };
+
+  /** Lines i.. of the batch, line i starting at byte `offset(i)`; false once the range is over. */
+  const take = (batch: LineBatch, offset: (i: number) => number): boolean => {
+    let run = 0;
+    for (let i = 0; i < batch.count; i++) {
+      const at = offset(i);
+      if (skipFirst) { skipFirst = false; run = i + 1; continue; }
+      if (start < 0) {
+        // Looking for the range's first line.
+        if (at >= job.to) { end = at; return false; }
+        if (!ranges.isBoundaryLine(batch, i)) { run = i + 1; continue; }
+        start = at;
+        run = i;
+      } else if (at >= job.to && ranges.isBoundaryLine(batch, i)) {
+        parser.pushBatch(batch, run, i);
+        end = at;
+        return false;
+      }
+    }
+    if (start >= 0) parser.pushBatch(batch, run, batch.count);
+    if (!first && ranges.dependsOnEarlierRecords()) { handover = true; return false; }
+    if (builder.records >= chunkRecords) flush();
+    return true;
+  };
+
+  const fd = openSync(job.path, 'r');
+  try {
+    const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
+    let position = first ? 0 : job.from - 1;
+    let pendingStart = position;
+    let going = true;
+    while (going) {
+      const bytesRead = readSync(fd, buffer, 0, CHUNK_BYTES, position);
+      if (bytesRead === 0) break;
+      const chunk = buffer.subarray(0, bytesRead);
+      const base = position;
+      const carriedStart = pendingStart;
+      splitter.pushBatches(chunk, (batch) => {
+        if (!going) return;
+        // A batch of one line that began in an earlier chunk, or the lines inside this chunk.
+        const carried = batch.bytes !== chunk;
+        going = take(batch, carried ? () => carriedStart : (i) => base + batch.starts[i]);
+      });
+      const lastNewline = chunk.lastIndexOf(10);
+      if (lastNewline >= 0) pendingStart = base + lastNewline + 1;
+      position += bytesRead;
+      lastOffset = pendingStart;
+    }
+    if (going) {
+      splitter.endBatches((batch) => { if (going) going = take(batch, () => pendingStart); });
+      if (end < 0) end = position;
+    }
+  } finally {
+    closeSync(fd);
+  }
+  if (!handover) {
+    parser.finish();
+    if (!first && ranges.dependsOnEarlierRecords()) handover = true;
+  }
+  if (end < 0) end = lastOffset;
+  if (!handover) {
+    lastOffset = end;
+    flush();
+  }
+  return { start, end, handover, totals: ranges.totals(), warnings };
+}
+
+export type { SeriesRegistration };

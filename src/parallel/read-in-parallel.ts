@@ -1,0 +1,261 @@
+/**
+ * Reading a big finished log with every core: the file is cut into byte ranges, worker threads
+ * parse them (parseRange), and the main thread joins their records in order, so that the run holds
+ * exactly what one sequential read gives (same records, series, statistics and warnings).
+ *
+ * Steps:
+ * 1. Detection, as the sequential read does it: the first 1 MiB chunks are split into lines until
+ *    DETECTION_LINES are collected; `target.choose` picks the parser (it is not fed those lines:
+ *    the first range starts at the top of the file).
+ * 2. When the parser cannot parse ranges apart (RecordParser.rangeParsing: table headers, time
+ *    steps) or the file is small, the whole file is read sequentially through `target.onLines`.
+ * 3. Otherwise ranges of about `rangeBytes` go to a pool of workers, each taking the next range
+ *    when idle. Range k is joined once it has ended: its series registrations are replayed into
+ *    the parser in record order, its records go to `target.addRecords`, the first record gets the
+ *    restart check against the previous range's last iteration, and its totals pass to the
+ *    parser. A range whose records depend on earlier ones (`handover`) and every range after it are
+ *    dropped, and the log is read sequentially from that range's start.
+ *
+ * Why it is exact: see parse/range-parsing.ts (a range starts at a boundary line, where the parser
+ * state reduces to counts, series and the last iteration) and parse-range.ts (ranges meet without
+ * gap or overlap). Tested record for record against the sequential read.
+ *
+ * Memory: the compact records of the ranges finished but not yet joined (about 10 bytes a value).
+ */
+import { open, stat } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import type { LineBatch } from '../ingest/line-batch.js';
+import type { SourceEvent } from '../ingest/line-source.js';
+import { DEFAULT_MAX_LINE_BYTES, LineSplitter, type SplitterWarning } from '../ingest/line-splitter.js';
+import { ChunkBuffers, readFileChunks } from '../ingest/read-file-chunks.js';
+import { ProgressReporter } from '../ingest/progress-reporter.js';
+import { warningText } from '../ingest/open-line-source.js';
+import { readFailure } from '../ingest/read-failure.js';
+import type { ParserChoice, RecordParser } from '../parse/record-parser.js';
+import type { RangeParsing, SeriesRegistration } from '../parse/range-parsing.js';
+import { InputError } from '../errors.js';
+import type { RangeEnd, RangeJob } from './parse-range.js';
+import type { RecordChunk } from './record-chunk.js';
+
+
+export interface ParallelReadTarget {
+  /** Choose the parser from the first lines and create it; throws as detection does. */
+  choose(lines: readonly string[]): { readonly choice: ParserChoice; readonly parser: RecordParser };
+  /** Lines for the chosen parser (sequential reading). */
+  onLines(batch: LineBatch): void;
+  /** One record of a range, in compact form (see SeriesStore.addCompact). */
+  addRecord(iteration: number, restart: boolean, failure: string | undefined,
+    names: readonly string[], columns: unknown[], series: Uint32Array, values: Float64Array, from: number, to: number): void;
+  /** A range was joined: this many lines were read. */
+  rangeJoined(lines: number): void;
+  onEvent(event: SourceEvent): void;
+}
+
+export interface ParallelReadOptions {
+  readonly path: string;
+  /** Lines collected for detection (the monitor's DETECTION_LINES). */
+  readonly detectionLines: number;
+  readonly maxLineBytes?: number;
+  /** Worker threads (default: the machine's cores, at most 4). */
+  readonly workers?: number;
+  /** Bytes per range (default: a quarter of the file per worker, at least 4 MiB). */
+  readonly rangeBytes?: number;
+  readonly progressEveryMs?: number;
+  /** Start a worker (tests run parseRange in the calling thread instead). Default: a worker
+   * thread running range-worker.js. */
+  readonly spawn?: () => RangeWorker;
+}
+
+/** What the join needs of a worker thread (node:worker_threads' Worker has it). */
+export interface RangeWorker {
+  postMessage(message: unknown): void;
+  on(event: 'message', listener: (message: WorkerMessage) => void): unknown;
+  on(event: 'error', listener: (error: Error) => void): unknown;
+  terminate(): Promise<number>;
+}
+
+export type WorkerMessage =
+  | { readonly type: 'chunk'; readonly id: number; readonly chunk: RecordChunk }
+  | { readonly type: 'end'; readonly id: number; readonly end: RangeEnd }
+  | { readonly type: 'error'; readonly id: number; readonly message: string };
+
+function spawnThread(): RangeWorker {
+  return new Worker(new URL('./range-worker.js', import.meta.url)) as unknown as RangeWorker;
+}
+
+interface RangeState {
+  readonly chunks: RecordChunk[];
+  end?: RangeEnd;
+}
+
+/** Read a finished, uncompressed log into `target`; resolves after the `end` event. */
+export async function readInParallel(options: ParallelReadOptions, target: ParallelReadTarget): Promise<void> {
+  const { path } = options;
+  const maxLineBytes = options.maxLineBytes ?? DEFAULT_MAX_LINE_BYTES;
+  let size: number;
+  try {
+    size = (await stat(path)).size;
+  } catch (error) {
+    throw readFailure(path, error);
+  }
+  target.onEvent({ type: 'opened', path, index: 0 });
+  const progress = new ProgressReporter(size, options.progressEveryMs ?? 100, (event) => target.onEvent(event));
+  const warned = new Set<SplitterWarning['kind']>();
+  const warn = (kind: SplitterWarning['kind']): void => {
+    if (warned.has(kind)) return;
+    warned.add(kind);
+    target.onEvent({ type: 'warning', message: warningText(path, { kind, maxLineBytes } as SplitterWarning) });
+  };
+
+  const { choice, parser } = target.choose(await firstLines(path, options.detectionLines, maxLineBytes));
+  const ranges = parser.rangeParsing();
+  const workers = Math.max(1, Math.min(options.workers ?? availableParallelism(), 4));
+  if (ranges === undefined) {
+    await readSequentially(path, 0, maxLineBytes, target, progress, warn);
+  } else {
+    const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workers * 4)));
+    const handoverAt = await joinRanges(options, size, rangeBytes, workers, choice, ranges, target, progress, warn);
+    if (handoverAt !== undefined) await readSequentially(path, handoverAt, maxLineBytes, target, progress, warn);
+  }
+  progress.finish();
+  target.onEvent({ type: 'end' });
+}
+
+/** The lines the sequential read collects before choosing a parser: whole batches of 1 MiB
+ * chunks from the top, until there are `wanted` lines or the file ends. */
+async function firstLines(path: string, wanted: number, maxLineBytes: number): Promise<string[]> {
+  const lines: string[] = [];
+  const splitter = new LineSplitter({ maxLineBytes });
+  const handle = await open(path, 'r');
+  try {
+    await readFileChunks(handle, 0, new ChunkBuffers(), (chunk) => {
+      splitter.pushBatches(chunk, (batch) => { if (lines.length < wanted) for (const line of batch) lines.push(line); });
+    }, { shouldStop: () => lines.length >= wanted });
+    if (lines.length < wanted) splitter.endBatches((batch) => { for (const line of batch) lines.push(line); });
+  } finally {
+    await handle.close();
+  }
+  return lines;
+}
+
+/** The file from `from` to its end, line by line into the target (warnings once per kind). */
+async function readSequentially(path: string, from: number, maxLineBytes: number, target: ParallelReadTarget,
+  progress: ProgressReporter, warn: (kind: SplitterWarning['kind']) => void): Promise<void> {
+  const splitter = new LineSplitter({ maxLineBytes, onWarning: (w) => warn(w.kind) });
+  const handle = await open(path, 'r');
+  try {
+    await readFileChunks(handle, from, new ChunkBuffers(), (chunk) => {
+      splitter.pushBatches(chunk, (batch) => target.onLines(batch));
+      progress.add(chunk.length);
+    });
+    splitter.endBatches((batch) => target.onLines(batch));
+  } catch (error) {
+    throw readFailure(path, error);
+  } finally {
+    await handle.close();
+  }
+}
+
+/** Parse the ranges in workers and join them in order. Returns the offset to go on from
+ * sequentially after a handover, or undefined when every range was joined. */
+async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes: number, workerCount: number,
+  choice: ParserChoice, ranges: RangeParsing, target: ParallelReadTarget, progress: ProgressReporter,
+  warn: (kind: SplitterWarning['kind']) => void): Promise<number | undefined> {
+  const count = Math.max(1, Math.ceil(size / rangeBytes));
+  const bounds = Array.from({ length: count + 1 }, (_, k) => (k === count ? size : Math.floor((k * size) / count)));
+  const states: RangeState[] = bounds.slice(0, count).map(() => ({ chunks: [] }));
+  let next = 0;
+  let failure: Error | undefined;
+  let wake: (() => void) | undefined;
+  const notify = (): void => { wake?.(); wake = undefined; };
+
+  const workers: RangeWorker[] = [];
+  const assign = (worker: RangeWorker): void => {
+    if (next >= count) return;
+    const id = next++;
+    const job: RangeJob = {
+      path: options.path, spec: choice.spec, overrides: choice.overrides, maxLineBytes: options.maxLineBytes,
+      from: bounds[id], to: id + 1 === count ? Number.MAX_SAFE_INTEGER : bounds[id + 1],
+    };
+    worker.postMessage({ id, job });
+  };
+  for (let w = 0; w < Math.min(workerCount, count); w++) {
+    const worker = (options.spawn ?? spawnThread)();
+    worker.on('message', (message: WorkerMessage) => {
+      if (message.type === 'chunk') states[message.id].chunks.push(message.chunk);
+      else if (message.type === 'end') { states[message.id].end = message.end; assign(worker); }
+      else failure = new InputError(`cannot read ${options.path}: ${message.message}`, 'check the file, or read it with --workers 1');
+      notify();
+    });
+    worker.on('error', (error) => { failure = error; notify(); });
+    workers.push(worker);
+    assign(worker);
+  }
+
+  let lastIteration: number | undefined;
+  let records = 0;
+  try {
+    for (let k = 0; k < count; k++) {
+      const state = states[k];
+      while (state.end === undefined && failure === undefined) await new Promise<void>((resolve) => { wake = resolve; });
+      if (failure !== undefined) throw failure;
+      const end = state.end as RangeEnd;
+      for (const kind of end.warnings) warn(kind);
+      if (end.handover) return end.start;
+      if (end.start < 0) continue;
+      let boundaryRestart = 0;
+      let emitted = 0;
+      let firstRecord = k > 0;
+      let offset = k > 0 ? end.start : 0;
+      const names: string[] = [];
+      const columns: unknown[] = [];
+      for (const chunk of state.chunks) {
+        for (const name of chunk.newNames) names.push(name);
+        const registrations = chunk.registrations;
+        let reg = 0;
+        let from = 0;
+        for (let r = 0; r < chunk.count; r++) {
+          while (reg < registrations.length && registrations[reg].atRecord <= emitted) replay(ranges, registrations[reg++]);
+          const failureText = failureOf(chunk, r);
+          const to = chunk.valueEnds[r];
+          let restart = chunk.restarts[r] === 1;
+          if (firstRecord && !(from === to && failureText !== undefined)) {
+            // The first record of a range is checked against the last iteration before it, as the
+            // sequential parser would (a counter going back is a restart).
+            firstRecord = false;
+            if (records > 0 && lastIteration !== undefined && chunk.iterations[r] < lastIteration && !restart) {
+              restart = true;
+              boundaryRestart = 1;
+            }
+          }
+          target.addRecord(chunk.iterations[r], restart, failureText, names, columns, chunk.series, chunk.values, from, to);
+          from = to;
+          emitted++;
+        }
+        while (reg < registrations.length) replay(ranges, registrations[reg++]);
+        progress.add(Math.max(0, chunk.endOffset - offset));
+        offset = Math.max(offset, chunk.endOffset);
+      }
+      state.chunks.length = 0;
+      ranges.resumeAfter({ ...end.totals, restarts: end.totals.restarts + boundaryRestart });
+      target.rangeJoined(end.totals.lines);
+      records += end.totals.records;
+      if (end.totals.lastIteration !== undefined) lastIteration = end.totals.lastIteration;
+      progress.add(Math.max(0, end.end - offset));
+    }
+    return undefined;
+  } finally {
+    await Promise.all(workers.map((worker) => worker.terminate()));
+  }
+}
+
+function replay(ranges: RangeParsing, registration: SeriesRegistration): void {
+  ranges.replayRegistrations([registration]);
+}
+
+function failureOf(chunk: RecordChunk, record: number): string | undefined {
+  if (chunk.failures.length === 0) return undefined;
+  for (const [index, text] of chunk.failures) if (index === record) return text;
+  return undefined;
+}
