@@ -20,6 +20,7 @@ import { PaceMeter } from './pace-meter.js';
 import { TypedEmitter } from './typed-emitter.js';
 import { InputError } from '../errors.js';
 import type { SeriesColumn } from '../series/series-column.js';
+import type { CompactRecords } from '../series/compact-records.js';
 import { PARALLEL_MIN_BYTES, worthReadingInParallel } from '../parallel/worth-reading-in-parallel.js';
 import type { MonitorPace, RunMonitor, RunMonitorEvents, RunMonitorOptions } from './run-monitor-types.js';
 
@@ -70,15 +71,21 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     if (analyse && isEvaluationPoint(store.records)) evaluate();
   }
 
-  /** A record joined from a worker's range (parallel read): as onRecord, without a LogRecord. */
-  function onJoinedRecord(iteration: number, restart: boolean, failure: string | undefined,
-    names: readonly string[], columns: unknown[], series: Uint32Array, values: Float64Array, from: number, to: number): void {
-    const added = store.addCompact(iteration, restart, failure, names, columns as (SeriesColumn | undefined)[], series, values, from, to, infoOf);
+  /** Records joined from a worker's range (parallel read): as onRecord on each. The join ends
+   * each span at an evaluation point (recordsUntilEvaluation), so the judge sees the same runs. */
+  function onJoinedRecords(records: CompactRecords, from: number, to: number, names: readonly string[], columns: unknown[], cursors: Int32Array): void {
+    const added = store.addCompactRecords(records, from, to, names, columns as (SeriesColumn | undefined)[], cursors, infoOf);
     changedSinceEvaluation = true;
-    revision++;
-    if (!added) return;
-    addedInBatch++;
-    if (analyse && isEvaluationPoint(store.records)) evaluate();
+    revision += to - from;
+    addedInBatch += added;
+    if (analyse && added > 0 && isEvaluationPoint(store.records)) evaluate();
+  }
+
+  function recordsUntilEvaluation(): number {
+    if (!analyse) return Number.POSITIVE_INFINITY;
+    let n = 1;
+    while (!isEvaluationPoint(store.records + n)) n++;
+    return n;
   }
 
   /** Read the one finished file with worker threads when it is big enough (see readInParallel). */
@@ -92,7 +99,8 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     await readInParallel({ path, detectionLines: DETECTION_LINES, ...settings }, {
       choose: chooseFrom,
       onLines: (batch) => onLines(batch),
-      addRecord: onJoinedRecord,
+      addRecords: onJoinedRecords,
+      recordsUntilPause: recordsUntilEvaluation,
       rangeJoined: (lines) => {
         pace.addLines(lines);
         pace.setRecords(store.records);
@@ -134,7 +142,8 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
       overrides: options.kindOverrides,
       source: label,
     });
-    const created = chosen.create(onRecord);
+    // The store copies each record's values (SeriesStore.add), so the parser may reuse them.
+    const created = chosen.create(onRecord, { copies: true });
     choice = chosen;
     parser = created;
     events.emit('parser', chosen);

@@ -54,7 +54,7 @@ const DEFAULT_CHUNK_RECORDS = 16_384;
 
 export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void): RangeEnd {
   const builder = new RecordChunkBuilder();
-  const parser = compileSpec(job.spec, job.overrides)((record) => builder.add(record));
+  const parser = compileSpec(job.spec, job.overrides)((record) => builder.add(record), { copies: true });
   const ranges = parser.rangeParsing() as RangeParsing;
   const registrations = ranges.recordRegistrations();
   let registrationsSent = 0;
@@ -76,25 +76,32 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
     if (chunk.count > 0 || chunk.registrations.length > 0) onChunk(chunk);
   };
 
-  /** Lines i.. of the batch, line i starting at byte `offset(i)`; false once the range is over. */
-  const take = (batch: LineBatch, offset: (i: number) => number): boolean => {
+  /** The lines of a batch, line i starting at byte `base + starts[i]` (or at `carried` for a batch
+   * of one line begun in an earlier chunk); false once the range is over. */
+  const take = (batch: LineBatch, base: number, carried: number): boolean => {
+    const count = batch.count;
+    const at = (i: number): number => (carried >= 0 ? carried : base + batch.starts[i]);
     let run = 0;
-    for (let i = 0; i < batch.count; i++) {
-      const at = offset(i);
-      if (skipFirst) { skipFirst = false; run = i + 1; continue; }
-      if (start < 0) {
-        // Looking for the range's first line.
-        if (at >= job.to) { end = at; return false; }
-        if (!ranges.isBoundaryLine(batch, i)) { run = i + 1; continue; }
-        start = at;
-        run = i;
-      } else if (at >= job.to && ranges.isBoundaryLine(batch, i)) {
-        parser.pushBatch(batch, run, i);
-        end = at;
-        return false;
+    if (start >= 0 && at(count - 1) < job.to) {
+      // The usual case: the whole batch lies inside the range.
+      parser.pushBatch(batch, 0, count);
+    } else {
+      for (let i = 0; i < count; i++) {
+        if (skipFirst) { skipFirst = false; run = i + 1; continue; }
+        if (start < 0) {
+          // Looking for the range's first line.
+          if (at(i) >= job.to) { end = at(i); return false; }
+          if (!ranges.isBoundaryLine(batch, i)) { run = i + 1; continue; }
+          start = at(i);
+          run = i;
+        } else if (at(i) >= job.to && ranges.isBoundaryLine(batch, i)) {
+          parser.pushBatch(batch, run, i);
+          end = at(i);
+          return false;
+        }
       }
+      if (start >= 0) parser.pushBatch(batch, run, count);
     }
-    if (start >= 0) parser.pushBatch(batch, run, batch.count);
     if (!first && ranges.dependsOnEarlierRecords()) { handover = true; return false; }
     if (builder.records >= chunkRecords) flush();
     return true;
@@ -116,7 +123,7 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
         if (!going) return;
         // A batch of one line that began in an earlier chunk, or the lines inside this chunk.
         const carried = batch.bytes !== chunk;
-        going = take(batch, carried ? () => carriedStart : (i) => base + batch.starts[i]);
+        going = take(batch, base, carried ? carriedStart : -1);
       });
       const lastNewline = chunk.lastIndexOf(10);
       if (lastNewline >= 0) pendingStart = base + lastNewline + 1;
@@ -124,7 +131,7 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
       lastOffset = pendingStart;
     }
     if (going) {
-      splitter.endBatches((batch) => { if (going) going = take(batch, () => pendingStart); });
+      splitter.endBatches((batch) => { if (going) going = take(batch, 0, pendingStart); });
       if (end < 0) end = position;
     }
   } finally {

@@ -37,6 +37,7 @@ import type { RangeParsing, SeriesRegistration } from '../parse/range-parsing.js
 import { InputError } from '../errors.js';
 import type { RangeEnd, RangeJob } from './parse-range.js';
 import type { RecordChunk } from './record-chunk.js';
+import { NO_VALUES, RESTART, type CompactRecords } from '../series/compact-records.js';
 
 
 export interface ParallelReadTarget {
@@ -44,9 +45,11 @@ export interface ParallelReadTarget {
   choose(lines: readonly string[]): { readonly choice: ParserChoice; readonly parser: RecordParser };
   /** Lines for the chosen parser (sequential reading). */
   onLines(batch: LineBatch): void;
-  /** One record of a range, in compact form (see SeriesStore.addCompact). */
-  addRecord(iteration: number, restart: boolean, failure: string | undefined,
-    names: readonly string[], columns: unknown[], series: Uint32Array, values: Float64Array, from: number, to: number): void;
+  /** Records from..to-1 of a chunk (see SeriesStore.addCompactRecords; `columns` and `cursors`
+   * are kept per range and per chunk). */
+  addRecords(records: CompactRecords, from: number, to: number, names: readonly string[], columns: unknown[], cursors: Int32Array): void;
+  /** How many more iterations the target takes before it wants a pause (an evaluation point). */
+  recordsUntilPause(): number;
   /** A range was joined: this many lines were read. */
   rangeJoined(lines: number): void;
   onEvent(event: SourceEvent): void;
@@ -212,27 +215,31 @@ async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes
       const columns: unknown[] = [];
       for (const chunk of state.chunks) {
         for (const name of chunk.newNames) names.push(name);
-        const registrations = chunk.registrations;
+        const { registrations, flags, count } = chunk;
+        const cursors = chunk.seriesStarts.slice(0, chunk.seriesCount);
         let reg = 0;
-        let from = 0;
-        for (let r = 0; r < chunk.count; r++) {
-          while (reg < registrations.length && registrations[reg].atRecord <= emitted) replay(ranges, registrations[reg++]);
-          const failureText = failureOf(chunk, r);
-          const to = chunk.valueEnds[r];
-          let restart = chunk.restarts[r] === 1;
-          if (firstRecord && !(from === to && failureText !== undefined)) {
+        let r = 0;
+        while (r < count) {
+          while (reg < registrations.length && registrations[reg].atRecord <= emitted + r) replay(ranges, registrations[reg++]);
+          if (firstRecord && (flags[r] & NO_VALUES) === 0) {
             // The first record of a range is checked against the last iteration before it, as the
             // sequential parser would (a counter going back is a restart).
             firstRecord = false;
-            if (records > 0 && lastIteration !== undefined && chunk.iterations[r] < lastIteration && !restart) {
-              restart = true;
+            if (records > 0 && lastIteration !== undefined && chunk.iterations[r] < lastIteration && (flags[r] & RESTART) === 0) {
+              flags[r] |= RESTART;
               boundaryRestart = 1;
             }
           }
-          target.addRecord(chunk.iterations[r], restart, failureText, names, columns, chunk.series, chunk.values, from, to);
-          from = to;
-          emitted++;
+          // A span ends before the next registration and where the target wants to pause.
+          let limit = reg < registrations.length ? Math.min(count, registrations[reg].atRecord - emitted) : count;
+          let wanted = target.recordsUntilPause();
+          for (let q = r; q < limit; q++) {
+            if ((flags[q] & NO_VALUES) === 0 && --wanted === 0) { limit = q + 1; break; }
+          }
+          target.addRecords(chunk, r, limit, names, columns, cursors);
+          r = limit;
         }
+        emitted += count;
         while (reg < registrations.length) replay(ranges, registrations[reg++]);
         progress.add(Math.max(0, chunk.endOffset - offset));
         offset = Math.max(offset, chunk.endOffset);
@@ -254,8 +261,3 @@ function replay(ranges: RangeParsing, registration: SeriesRegistration): void {
   ranges.replayRegistrations([registration]);
 }
 
-function failureOf(chunk: RecordChunk, record: number): string | undefined {
-  if (chunk.failures.length === 0) return undefined;
-  for (const [index, text] of chunk.failures) if (index === record) return text;
-  return undefined;
-}

@@ -1,23 +1,15 @@
 /**
- * Records in compact form, for sending from a worker thread to the main thread: columns of typed
- * arrays (whose buffers are transferred, not copied) instead of one object and one Map per record.
- *
- * Record r has iteration `iterations[r]`, the restart mark `restarts[r]`, and the values
- * `values[valueEnds[r - 1] .. valueEnds[r])` of the series `series[...]` (indices into the range's
- * name table, in the order the record held them). Crash records carry their text in `failures`.
+ * Records in compact form, for sending from a worker thread to the main thread: typed arrays
+ * grouped by series (see series/compact-records.ts)
+ * instead of one object per record. The builder collects records row by row and groups them by
+ * series when a chunk is taken (a counting sort, O(values)).
  */
 import type { LogRecord } from '../parse/log-record.js';
+import { RecordValues } from '../parse/record-values.js';
 import type { SeriesRegistration } from '../parse/range-parsing.js';
+import { NO_VALUES, RESTART, type CompactRecords } from '../series/compact-records.js';
 
-export interface RecordChunk {
-  readonly count: number;
-  readonly iterations: Float64Array;
-  readonly restarts: Uint8Array;
-  readonly valueEnds: Int32Array;
-  readonly series: Uint32Array;
-  readonly values: Float64Array;
-  /** [record index, failure text] of the records that carry one. */
-  readonly failures: readonly (readonly [number, string])[];
+export interface RecordChunk extends CompactRecords {
   /** Names of the range met since the previous chunk (the table grows in order). */
   readonly newNames: readonly string[];
   /** Series registrations of this chunk, `atRecord` counted from the range's start. */
@@ -38,6 +30,8 @@ export class RecordChunkBuilder {
   private count = 0;
   private valueCount = 0;
   private readonly ids = new Map<string, number>();
+  private readonly lastNames: string[] = [];
+  private readonly lastIds: number[] = [];
   private newNames: string[] = [];
 
   get records(): number {
@@ -48,20 +42,39 @@ export class RecordChunkBuilder {
     if (this.count === this.iterations.length) this.growRecords();
     const r = this.count++;
     this.iterations[r] = record.iteration;
-    this.restarts[r] = record.restart === true ? 1 : 0;
+    this.restarts[r] = record.restart === true ? RESTART : 0;
     if (record.failure !== undefined) this.failures.push([r, record.failure]);
-    record.values.forEach((value, name) => {
-      let id = this.ids.get(name);
-      if (id === undefined) {
-        id = this.ids.size;
-        this.ids.set(name, id);
-        this.newNames.push(name);
+    const values = record.values;
+    if (values instanceof RecordValues) {
+      const { names, numbers } = values;
+      for (let k = 0; k < names.length; k++) {
+        // The k-th name of a record is usually the k-th name of the record before (the same string).
+        const name = names[k];
+        if (this.lastNames[k] === name) this.addId(this.lastIds[k], numbers[k]);
+        else this.lastIds[k] = this.addValue(name, numbers[k]);
+        this.lastNames[k] = name;
       }
-      if (this.valueCount === this.values.length) this.growValues();
-      this.series[this.valueCount] = id;
-      this.values[this.valueCount++] = value;
-    });
+    } else {
+      values.forEach((value, name) => this.addValue(name, value));
+    }
     this.valueEnds[r] = this.valueCount;
+  }
+
+  private addValue(name: string, value: number): number {
+    let id = this.ids.get(name);
+    if (id === undefined) {
+      id = this.ids.size;
+      this.ids.set(name, id);
+      this.newNames.push(name);
+    }
+    this.addId(id, value);
+    return id;
+  }
+
+  private addId(id: number, value: number): void {
+    if (this.valueCount === this.values.length) this.growValues();
+    this.series[this.valueCount] = id;
+    this.values[this.valueCount++] = value;
   }
 
   /** Keep only the first `records` records (names stay known: a name is only a table entry). */
@@ -72,16 +85,56 @@ export class RecordChunkBuilder {
     this.failures = this.failures.filter(([r]) => r < records);
   }
 
-  /** The chunk of the records so far (copied out); the builder starts again empty. */
+  /** The chunk of the records so far, grouped by series; the builder starts again empty. The
+   * chunk's arrays are views of the builder's scratch arrays: valid until the next `take` (post
+   * it, which copies, or copy it, before taking again). */
   take(registrations: readonly SeriesRegistration[], endOffset: number): RecordChunk {
+    const count = this.count;
+    const total = this.valueCount;
+    const seriesCount = this.ids.size;
+    const scratch = this.scratchFor(count, total, seriesCount);
+    const { seriesIds, seriesStarts, slotStart, valueRecords, values, flags } = scratch;
+    // Counting sort of the values by series id (ids are 0..seriesCount-1).
+    const seen = scratch.seen;
+    seen.fill(0, 0, seriesCount + 1);
+    const series = this.series;
+    for (let v = 0; v < total; v++) seen[series[v] + 1]++;
+    let slots = 0;
+    let at = 0;
+    for (let id = 0; id < seriesCount; id++) {
+      const n = seen[id + 1];
+      if (n === 0) continue;
+      seriesIds[slots] = id;
+      seriesStarts[slots] = at;
+      slotStart[id] = at;
+      at += n;
+      slots++;
+    }
+    seriesStarts[slots] = at;
+    const valueEnds = this.valueEnds;
+    const rowValues = this.values;
+    let record = 0;
+    for (let v = 0; v < total; v++) {
+      while (valueEnds[record] <= v) record++;
+      const to = slotStart[series[v]]++;
+      valueRecords[to] = record;
+      values[to] = rowValues[v];
+    }
+    let previousEnd = 0;
+    for (let r = 0; r < count; r++) {
+      flags[r] = this.restarts[r] | (valueEnds[r] === previousEnd ? NO_VALUES : 0);
+      previousEnd = valueEnds[r];
+    }
     const chunk: RecordChunk = {
-      count: this.count,
-      iterations: this.iterations.slice(0, this.count),
-      restarts: this.restarts.slice(0, this.count),
-      valueEnds: this.valueEnds.slice(0, this.count),
-      series: this.series.slice(0, this.valueCount),
-      values: this.values.slice(0, this.valueCount),
+      count,
+      iterations: this.iterations.subarray(0, count),
+      flags: flags.subarray(0, count),
       failures: this.failures,
+      seriesCount: slots,
+      seriesIds: seriesIds.subarray(0, slots),
+      seriesStarts: seriesStarts.subarray(0, slots + 1),
+      valueRecords: valueRecords.subarray(0, total),
+      values: values.subarray(0, total),
       newNames: this.newNames,
       registrations,
       endOffset,
@@ -91,6 +144,22 @@ export class RecordChunkBuilder {
     this.failures = [];
     this.newNames = [];
     return chunk;
+  }
+
+  private scratch: Scratch | undefined;
+
+  /** Column-major scratch arrays big enough for this chunk (grown, never shrunk). */
+  private scratchFor(records: number, values: number, series: number): Scratch {
+    const old = this.scratch;
+    if (old !== undefined && old.flags.length >= records && old.values.length >= values && old.seen.length > series) return old;
+    const r = Math.max(records, old?.flags.length ?? 0);
+    const v = Math.max(values, old?.values.length ?? 0);
+    const s = Math.max(series + 1, old?.seen.length ?? 0) * 2;
+    this.scratch = {
+      flags: new Uint8Array(r), valueRecords: new Int32Array(v), values: new Float64Array(v),
+      seriesIds: new Uint32Array(s), seriesStarts: new Int32Array(s + 1), slotStart: new Int32Array(s), seen: new Int32Array(s + 1),
+    };
+    return this.scratch;
   }
 
   private growRecords(): void {
@@ -112,7 +181,12 @@ function grown<T extends Float64Array | Uint8Array | Int32Array | Uint32Array>(f
   return to;
 }
 
-/** The buffers of a chunk, for a transfer list. */
-export function transferablesOf(chunk: RecordChunk): ArrayBuffer[] {
-  return [chunk.iterations, chunk.restarts, chunk.valueEnds, chunk.series, chunk.values].map((array) => array.buffer as ArrayBuffer);
+interface Scratch {
+  readonly flags: Uint8Array;
+  readonly valueRecords: Int32Array;
+  readonly values: Float64Array;
+  readonly seriesIds: Uint32Array;
+  readonly seriesStarts: Int32Array;
+  readonly slotStart: Int32Array;
+  readonly seen: Int32Array;
 }

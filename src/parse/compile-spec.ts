@@ -4,7 +4,7 @@
  * present, number lexing, and the record itself.
  */
 import type { SeriesInfo, SeriesKind } from './log-record.js';
-import type { KindOverrides, ParseStats, RecordParser, RecordSink } from './record-parser.js';
+import type { KindOverrides, ParseStats, RecordParser, RecordSink, RecordSinkOptions } from './record-parser.js';
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { capLine, groupNames, leadingLiteral, PATTERN_LINE_LIMIT, UserPattern } from './user-pattern.js';
 import { compileBytePattern, type BytePattern } from './byte-pattern.js';
@@ -20,12 +20,12 @@ import { RecordAssembler } from './record-assembler.js';
 import type { LineBatch } from '../ingest/line-batch.js';
 import type { RangeParsing, SeriesRegistration } from './range-parsing.js';
 
-export type RecordParserFactory = (onRecord: RecordSink) => RecordParser;
+export type RecordParserFactory = (onRecord: RecordSink, options?: RecordSinkOptions) => RecordParser;
 
 /** Compile once; the factory creates independent parsers (one per run). */
 export function compileSpec(spec: ParserSpec, overrides: KindOverrides): RecordParserFactory {
   const plan = planSpec(spec, overrides);
-  return (onRecord) => new SpecParser(plan, onRecord);
+  return (onRecord, options) => new SpecParser(plan, onRecord, options?.copies ?? false);
 }
 
 interface CompiledGroup { readonly group: string; readonly series: string; readonly def: GroupSeries }
@@ -208,6 +208,8 @@ class SpecParser implements RecordParser {
   private readonly assembler: RecordAssembler;
   private readonly info = new Map<string, SeriesInfo>();
   private readonly byteNames = new ByteNames();
+  /** Series info by ByteNames index, as last looked up (see addBytePair). */
+  private readonly byteInfo: (SeriesInfo | undefined)[] = [];
   /** Series registrations, recorded when this parser parses one range of a log (a worker). */
   private registrations: SeriesRegistration[] | undefined;
   private columns: string[] | null = null;
@@ -240,9 +242,9 @@ class SpecParser implements RecordParser {
     return true;
   };
 
-  constructor(private readonly plan: Plan, sink: RecordSink) {
+  constructor(private readonly plan: Plan, sink: RecordSink, sinkCopies: boolean) {
     this.id = plan.spec.id;
-    this.assembler = new RecordAssembler(sink, plan.spec.counters?.step === undefined);
+    this.assembler = new RecordAssembler(sink, plan.spec.counters?.step === undefined, sinkCopies);
   }
 
   pushLine(line: string): void {
@@ -341,18 +343,29 @@ class SpecParser implements RecordParser {
     if (nameCap < 0 || valueCap < 0 || caps[2 * nameCap] < 0 || caps[2 * valueCap] < 0) return;
     const value = lexNumberBytes(bytes, caps[2 * valueCap], caps[2 * valueCap + 1]);
     if (value === undefined) return;
-    const name = this.byteNames.get(bytes, caps[2 * nameCap], caps[2 * nameCap + 1]);
+    const index = this.byteNames.indexOf(bytes, caps[2 * nameCap], caps[2 * nameCap + 1]);
+    const name = index >= 0 ? this.byteNames.nameAt(index) : latin1(bytes, caps[2 * nameCap], caps[2 * nameCap + 1]);
     const plan = this.plan;
     if (plan.counterOf.size > 0) {
       const counter = plan.counterOf.get(name);
       if (counter !== undefined) { this.pairsSeen++; this.assembler.setCounter(counter, value); return; }
     }
     const hasUnit = unitCap >= 0 && caps[2 * unitCap] >= 0;
-    const known = this.info.get(name);
+    // The series' info as last looked up (info objects are replaced, never changed: a stale one
+    // still says the series is known; it is looked up again only when a unit may be new).
+    const byteInfo = this.byteInfo;
+    let known = index >= 0 && index < byteInfo.length ? byteInfo[index] : undefined;
     if (known === undefined || (hasUnit && known.unit === undefined)) {
-      // New, or may get its first unit: the text path's rule, on the unit's text.
-      this.addValue(name, value, hasUnit ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1]) : undefined);
-      return;
+      known = this.info.get(name);
+      if (known === undefined || (hasUnit && known.unit === undefined)) {
+        // New, or may get its first unit: the text path's rule, on the unit's text.
+        this.addValue(name, value, hasUnit ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1]) : undefined);
+        return;
+      }
+      if (index >= 0) {
+        while (byteInfo.length <= index) byteInfo.push(undefined);
+        byteInfo[index] = known;
+      }
     }
     this.pairsSeen++;
     this.assembler.current().set(name, value);

@@ -126,9 +126,11 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
   }
   if (!sawDigit) return lexSlow(latin1(bytes, start, end));
   let exponent = 0;
+  let exponentLetter = 0;
   if (i < end) {
     code = bytes[i] | 0x20;
     if (code !== LOWER_E && code !== LOWER_D) return lexSlow(latin1(bytes, start, end));
+    exponentLetter = code;
     i++;
     let exponentNegative = false;
     code = i < end ? bytes[i] : -1;
@@ -143,7 +145,11 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
     if (exponentNegative) exponent = -exponent;
   }
   exponent -= fractionDigits;
-  if (significant > 15 || exponent > 22 || exponent < -22) return lexNumber(latin1(bytes, start, end));
+  if (significant > 15 || exponent > 22 || exponent < -22) {
+    // What lexNumberIn does here, without reading the token a second time.
+    const text = latin1(bytes, start, end);
+    return Number(exponentLetter === LOWER_D ? text.replace(EXPONENT_D, 'e') : text);
+  }
   const value = exponent >= 0 ? mantissa * POWERS_OF_TEN[exponent] : mantissa / POWERS_OF_TEN[-exponent];
   return negative ? -value : value;
 }

@@ -4,6 +4,7 @@
  * restarts (a counter going back), and keeps the parse statistics. Shared by every compiled parser.
  */
 import type { LogRecord } from './log-record.js';
+import { RecordValues } from './record-values.js';
 import type { ParseStats, RecordSink } from './record-parser.js';
 
 const SAMPLE_SIZE = 10;
@@ -11,7 +12,7 @@ const SAMPLE_LINE_LENGTH = 160;
 const FAILURE_TEXT_LENGTH = 200;
 
 export class RecordAssembler {
-  private values: Map<string, number> | null = null;
+  private values: RecordValues | null = null;
   private iteration: number | undefined;
   private step: number | undefined;
   private time: number | undefined;
@@ -44,11 +45,19 @@ export class RecordAssembler {
    * false (see parse/range-parsing.ts). */
   dependsOnEarlierRecords = false;
 
-  constructor(private readonly sink: RecordSink, private readonly stepFromTime: boolean) {}
+  /** `reuseValues`: the sink copies each record (see RecordSinkOptions.copies), so one values
+   * object serves every record. */
+  constructor(private readonly sink: RecordSink, private readonly stepFromTime: boolean, private readonly reuseValues = false) {}
+
+  /** A values object emptied for reuse once the sink has copied it. */
+  private spare: RecordValues | null = null;
 
   /** The record being built (opened on demand). */
-  current(): Map<string, number> {
-    if (this.values === null) this.values = new Map();
+  current(): RecordValues {
+    if (this.values === null) {
+      this.values = this.spare ?? new RecordValues();
+      this.spare = null;
+    }
     return this.values;
   }
 
@@ -75,6 +84,7 @@ export class RecordAssembler {
     this.values = null;
     if (values.size === 0 && this.failureText === undefined) {
       this.clearCounters();
+      this.spare = values;
       return;
     }
     if (values.size === 0) {
@@ -130,6 +140,10 @@ export class RecordAssembler {
     this.records++;
     this.emitted++;
     this.sink(record);
+    if (this.reuseValues) {
+      values.clear();
+      this.spare = values;
+    }
   }
 
   private clearCounters(): void {

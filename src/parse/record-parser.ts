@@ -9,6 +9,13 @@ import type { ParserSpec } from './parser-spec.js';
 
 export type RecordSink = (record: LogRecord) => void;
 
+export interface RecordSinkOptions {
+  /** The sink copies what it needs from each record before it returns and keeps nothing of it,
+   * so the parser may reuse the record's values object for the next record (no allocation per
+   * record on the read path). Default false: records are the sink's to keep. */
+  readonly copies?: boolean;
+}
+
 export interface ParseStats {
   /** Lines fed so far. */
   readonly lines: number;
@@ -51,7 +58,7 @@ export interface ParserChoice {
   /** One line, e.g. `spec settle-csv (built-in): header row matched` or
    * `inferred: whitespace table with 7 numeric columns`. */
   readonly explanation: string;
-  create(onRecord: RecordSink): RecordParser;
+  create(onRecord: RecordSink, options?: RecordSinkOptions): RecordParser;
   /** The spec behind the parser (built-in, user or inferred), for rebuilding it in a worker. */
   readonly spec: ParserSpec;
   readonly overrides: KindOverrides;

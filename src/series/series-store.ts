@@ -7,6 +7,8 @@
  * value; a thinning pass is O(capacity) and happens once per capacity/4 values added.
  */
 import type { LogRecord, SeriesInfo } from '../parse/log-record.js';
+import { RecordValues } from '../parse/record-values.js';
+import { NO_VALUES, RESTART, type CompactRecords } from './compact-records.js';
 import type { RunSnapshot, SeriesColumn } from './series-column.js';
 
 export const DEFAULT_CAPACITY = 1 << 18;
@@ -78,16 +80,14 @@ export class SeriesStore {
     // A crash line outside any iteration carries no values: it marks the run, it is not an iteration.
     if (record.values.size === 0 && record.failure !== undefined) return;
     const iteration = record.iteration;
-    // forEach, not for...of: no entry array per value (measured: a third of the cost of adding).
-    record.values.forEach((value, name) => {
-      let column = this.columns.get(name);
-      if (column === undefined) {
-        column = new Column(infoOf(name), this.capacity);
-        this.columns.set(name, column);
-        this.ordered.push(column);
-      }
-      column.push(iteration, value);
-    });
+    const values = record.values;
+    if (values instanceof RecordValues) {
+      // The parsers' records: two arrays, walked without a callback.
+      const { names, numbers } = values;
+      for (let k = 0; k < names.length; k++) this.columnOf(names[k], infoOf).push(iteration, numbers[k]);
+    } else {
+      values.forEach((value, name) => this.columnOf(name, infoOf).push(iteration, value));
+    }
     if (record.timeStep !== undefined) {
       const current = this.steps[this.steps.length - 1];
       if (current !== undefined && current.step === record.timeStep && !record.restart) {
@@ -102,37 +102,55 @@ export class SeriesStore {
   }
 
   /**
-   * Add one record given in compact form (the parallel read): the same as `add` for a record of a
-   * log without time steps whose values are `values[from..to)` of the series named
-   * `names[series[k]]`. `columns` caches the column of each name index (filled here; keep one per
-   * name table). Returns false for a crash record that is not an iteration (nothing added).
+   * Add records `from..to-1` of compact records (the parallel read): the same as `add` on each, in
+   * order, for records without time steps. `names` maps the records' series ids to names;
+   * `columns` caches the column of each id and `cursors` (one per series slot, starting at
+   * `seriesStarts[k]`) where each slot's values go on: keep both for the next span of the same
+   * records. Returns how many records were iterations (crash lines with no values are not).
    */
-  addCompact(
-    iteration: number, restart: boolean, failure: string | undefined,
-    names: readonly string[], columns: (SeriesColumn | undefined)[], series: Uint32Array, values: Float64Array, from: number, to: number,
-    infoOf: (name: string) => SeriesInfo,
-  ): boolean {
-    if (restart && this.recordCount > 0) this.restartIterations.push(iteration);
-    if (failure !== undefined && this.failureText === undefined) this.failureText = failure;
-    if (from === to && failure !== undefined) return false;
-    for (let k = from; k < to; k++) {
-      const id = series[k];
-      let column = columns[id] as Column | undefined;
-      if (column === undefined) {
-        const name = names[id];
-        column = this.columns.get(name);
-        if (column === undefined) {
-          column = new Column(infoOf(name), this.capacity);
-          this.columns.set(name, column);
-          this.ordered.push(column);
-        }
-        columns[id] = column;
+  addCompactRecords(records: CompactRecords, from: number, to: number, names: readonly string[],
+    columns: (SeriesColumn | undefined)[], cursors: Int32Array, infoOf: (name: string) => SeriesInfo): number {
+    const { iterations, flags, failures } = records;
+    let added = 0;
+    let last = Number.NaN;
+    let failure = 0;
+    while (failure < failures.length && failures[failure][0] < from) failure++;
+    for (let r = from; r < to; r++) {
+      const flag = flags[r];
+      if ((flag & RESTART) !== 0 && this.recordCount + added > 0) this.restartIterations.push(iterations[r]);
+      let failed = false;
+      if (failure < failures.length && failures[failure][0] === r) {
+        failed = true;
+        if (this.failureText === undefined) this.failureText = failures[failure][1];
+        failure++;
       }
-      column.push(iteration, values[k]);
+      if ((flag & NO_VALUES) !== 0 && failed) continue;
+      added++;
+      last = iterations[r];
     }
-    this.recordCount++;
-    this.lastIterationSeen = iteration;
-    return true;
+    const { seriesIds, seriesStarts, valueRecords, values } = records;
+    for (let k = 0; k < records.seriesCount; k++) {
+      let j = cursors[k];
+      const end = seriesStarts[k + 1];
+      if (j >= end || valueRecords[j] >= to) continue;
+      const id = seriesIds[k];
+      const column = (columns[id] ??= this.columnOf(names[id], infoOf)) as Column;
+      for (; j < end && valueRecords[j] < to; j++) column.push(iterations[valueRecords[j]], values[j]);
+      cursors[k] = j;
+    }
+    this.recordCount += added;
+    if (added > 0) this.lastIterationSeen = last;
+    return added;
+  }
+
+  private columnOf(name: string, infoOf: (name: string) => SeriesInfo): Column {
+    let column = this.columns.get(name);
+    if (column === undefined) {
+      column = new Column(infoOf(name), this.capacity);
+      this.columns.set(name, column);
+      this.ordered.push(column);
+    }
+    return column;
   }
 
   /** Update a series' kind/unit/label (the parser may learn more as it reads). */
