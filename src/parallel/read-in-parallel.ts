@@ -111,15 +111,23 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
     target.onEvent({ type: 'warning', message: warningText(path, { kind, maxLineBytes } as SplitterWarning) });
   };
 
-  const { choice, parser } = target.choose(await firstLines(path, options.detectionLines, maxLineBytes));
-  const ranges = parser.rangeParsing();
-  const workers = Math.max(1, Math.min(options.workers ?? availableParallelism(), 4));
-  if (ranges === undefined) {
-    await readSequentially(path, 0, maxLineBytes, target, progress, warn);
-  } else {
-    const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workers * 4)));
-    const handoverAt = await joinRanges(options, size, rangeBytes, workers, choice, ranges, target, progress, warn);
-    if (handoverAt !== undefined) await readSequentially(path, handoverAt, maxLineBytes, target, progress, warn);
+  const workerCount = Math.max(1, Math.min(options.workers ?? availableParallelism(), 4));
+  const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workerCount * 4)));
+  const rangeCount = Math.max(1, Math.ceil(size / rangeBytes));
+  // Workers start while the parser is chosen (their start-up overlaps detection).
+  const workers = Array.from({ length: Math.min(workerCount, rangeCount) }, () => (options.spawn ?? spawnThread)());
+  try {
+    const { choice, parser } = target.choose(await firstLines(path, options.detectionLines, maxLineBytes));
+    const ranges = parser.rangeParsing();
+    if (ranges === undefined) {
+      await stopAll(workers);
+      await readSequentially(path, 0, maxLineBytes, target, progress, warn);
+    } else {
+      const handoverAt = await joinRanges(options, size, rangeCount, workers, choice, ranges, target, progress, warn);
+      if (handoverAt !== undefined) await readSequentially(path, handoverAt, maxLineBytes, target, progress, warn);
+    }
+  } finally {
+    await stopAll(workers);
   }
   progress.finish();
   target.onEvent({ type: 'end' });
@@ -162,10 +170,9 @@ async function readSequentially(path: string, from: number, maxLineBytes: number
 
 /** Parse the ranges in workers and join them in order. Returns the offset to go on from
  * sequentially after a handover, or undefined when every range was joined. */
-async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes: number, workerCount: number,
+async function joinRanges(options: ParallelReadOptions, size: number, count: number, workers: readonly RangeWorker[],
   choice: ParserChoice, ranges: RangeParsing, target: ParallelReadTarget, progress: ProgressReporter,
   warn: (kind: SplitterWarning['kind']) => void): Promise<number | undefined> {
-  const count = Math.max(1, Math.ceil(size / rangeBytes));
   const bounds = Array.from({ length: count + 1 }, (_, k) => (k === count ? size : Math.floor((k * size) / count)));
   const states: RangeState[] = bounds.slice(0, count).map(() => ({ chunks: [] }));
   let next = 0;
@@ -173,7 +180,6 @@ async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes
   let wake: (() => void) | undefined;
   const notify = (): void => { wake?.(); wake = undefined; };
 
-  const workers: RangeWorker[] = [];
   const assign = (worker: RangeWorker): void => {
     if (next >= count) return;
     const id = next++;
@@ -183,16 +189,14 @@ async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes
     };
     worker.postMessage({ id, job });
   };
-  for (let w = 0; w < Math.min(workerCount, count); w++) {
-    const worker = (options.spawn ?? spawnThread)();
+  for (const worker of workers) {
     worker.on('message', (message: WorkerMessage) => {
       if (message.type === 'chunk') states[message.id].chunks.push(message.chunk);
       else if (message.type === 'end') { states[message.id].end = message.end; assign(worker); }
-      else failure = new InputError(`cannot read ${options.path}: ${message.message}`, 'check the file, or read it with --workers 1');
+      else failure = new InputError(`cannot read ${options.path}: ${message.message}`, 'check the file; SETTLE_READ_WORKERS=0 reads it without worker threads');
       notify();
     });
     worker.on('error', (error) => { failure = error; notify(); });
-    workers.push(worker);
     assign(worker);
   }
 
@@ -253,8 +257,18 @@ async function joinRanges(options: ParallelReadOptions, size: number, rangeBytes
     }
     return undefined;
   } finally {
-    await Promise.all(workers.map((worker) => worker.terminate()));
+    await stopAll(workers);
   }
+}
+
+const stopped = new WeakSet<RangeWorker>();
+
+/** Terminate workers (once each). */
+async function stopAll(workers: readonly RangeWorker[]): Promise<void> {
+  await Promise.all(workers.filter((worker) => !stopped.has(worker)).map((worker) => {
+    stopped.add(worker);
+    return worker.terminate();
+  }));
 }
 
 function replay(ranges: RangeParsing, registration: SeriesRegistration): void {

@@ -45,7 +45,7 @@ export class ByteNames {
       slot = (slot + 1) & mask;
     }
     if (this.names.length >= MAX_NAMES) return -1;
-    const name = latin1(bytes, start, end);
+    const name = internalized(latin1(bytes, start, end));
     // A copy (the line's buffer is reused by the reader).
     const key = new Uint8Array(end - start);
     for (let i = start; i < end; i++) key[i - start] = bytes[i];
@@ -74,6 +74,13 @@ function hashOf(bytes: Uint8Array, start: number, end: number): number {
   const length = end - start;
   if (length === 0) return 0;
   return Math.imul(length, 0x9e3779b1) ^ (bytes[start] << 7) ^ (bytes[end - 1] << 13) ^ (bytes[start + (length >> 1)] << 19) ^ bytes[end - 1 - (length >> 2)];
+}
+
+/** The engine's single copy of a string (property keys are kept once): two such strings are
+ * equal exactly when they are the same object, which makes comparing names a pointer test. */
+function internalized(text: string): string {
+  const holder: Record<string, true> = { [text]: true };
+  return Object.keys(holder)[0];
 }
 
 function sameBytes(key: Uint8Array, bytes: Uint8Array, start: number): boolean {
