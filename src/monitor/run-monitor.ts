@@ -93,7 +93,7 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     const path = options.paths[0];
     const settings = options.parallel ?? parallelFromEnvironment();
     if (options.follow || settings === false || options.paths.length !== 1 || path === '-') return false;
-    if (!(await worthReadingInParallel(path, settings.minBytes ?? PARALLEL_MIN_BYTES))) return false;
+    if (!worthReadingInParallel(path, settings.minBytes ?? PARALLEL_MIN_BYTES)) return false;
     const { readInParallel } = await import('../parallel/read-in-parallel.js');
     addedInBatch = 0;
     await readInParallel({ path, detectionLines: DETECTION_LINES, ...settings }, {

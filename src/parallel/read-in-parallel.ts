@@ -22,13 +22,14 @@
  *
  * Memory: the compact records of the ranges finished but not yet joined (about 10 bytes a value).
  */
-import { open, stat } from 'node:fs/promises';
+import { closeSync, openSync, readSync, statSync } from 'node:fs';
+import { open } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import type { LineBatch } from '../ingest/line-batch.js';
 import type { SourceEvent } from '../ingest/line-source.js';
 import { DEFAULT_MAX_LINE_BYTES, LineSplitter, type SplitterWarning } from '../ingest/line-splitter.js';
-import { ChunkBuffers, readFileChunks } from '../ingest/read-file-chunks.js';
+import { CHUNK_BYTES, ChunkBuffers, readFileChunks } from '../ingest/read-file-chunks.js';
 import { ProgressReporter } from '../ingest/progress-reporter.js';
 import { warningText } from '../ingest/open-line-source.js';
 import { readFailure } from '../ingest/read-failure.js';
@@ -98,7 +99,7 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
   const maxLineBytes = options.maxLineBytes ?? DEFAULT_MAX_LINE_BYTES;
   let size: number;
   try {
-    size = (await stat(path)).size;
+    size = statSync(path).size;
   } catch (error) {
     throw readFailure(path, error);
   }
@@ -117,7 +118,7 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
   // Workers start while the parser is chosen (their start-up overlaps detection).
   const workers = Array.from({ length: Math.min(workerCount, rangeCount) }, () => (options.spawn ?? spawnThread)());
   try {
-    const { choice, parser } = target.choose(await firstLines(path, options.detectionLines, maxLineBytes));
+    const { choice, parser } = target.choose(firstLines(path, options.detectionLines, maxLineBytes));
     const ranges = parser.rangeParsing();
     if (ranges === undefined) {
       await stopAll(workers);
@@ -134,18 +135,25 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
 }
 
 /** The lines the sequential read collects before choosing a parser: whole batches of 1 MiB
- * chunks from the top, until there are `wanted` lines or the file ends. */
-async function firstLines(path: string, wanted: number, maxLineBytes: number): Promise<string[]> {
+ * chunks from the top, until there are `wanted` lines or the file ends (read synchronously: one
+ * or two reads at start-up). */
+function firstLines(path: string, wanted: number, maxLineBytes: number): string[] {
   const lines: string[] = [];
   const splitter = new LineSplitter({ maxLineBytes });
-  const handle = await open(path, 'r');
+  const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
+  const fd = openSync(path, 'r');
   try {
-    await readFileChunks(handle, 0, new ChunkBuffers(), (chunk) => {
-      splitter.pushBatches(chunk, (batch) => { if (lines.length < wanted) for (const line of batch) lines.push(line); });
-    }, { shouldStop: () => lines.length >= wanted });
-    if (lines.length < wanted) splitter.endBatches((batch) => { for (const line of batch) lines.push(line); });
+    for (let position = 0; lines.length < wanted;) {
+      const bytesRead = readSync(fd, buffer, 0, CHUNK_BYTES, position);
+      if (bytesRead === 0) {
+        splitter.endBatches((batch) => { for (const line of batch) lines.push(line); });
+        break;
+      }
+      position += bytesRead;
+      splitter.pushBatches(buffer.subarray(0, bytesRead), (batch) => { if (lines.length < wanted) for (const line of batch) lines.push(line); });
+    }
   } finally {
-    await handle.close();
+    closeSync(fd);
   }
   return lines;
 }

@@ -69,6 +69,10 @@ export interface BytePattern {
    * with. A search from lineStart on a non-empty line whose first byte is not in it fails, so a
    * caller may skip the call (undefined: no such shortcut). */
   readonly startBytes?: Uint8Array;
+  /** For a pattern `^\s*K` where K must consume a byte (at a position that is not the line end):
+   * the bytes K can begin with. A search from lineStart on a line whose first byte that is not
+   * `\s` is outside this set fails (a line of blanks only may still match). */
+  readonly startBytesAfterBlanks?: Uint8Array;
 }
 
 type ExecFunction = (buf: Uint8Array, lineStart: number, lineEnd: number, from: number, caps: Int32Array) => number;
@@ -542,7 +546,7 @@ class CompiledBytePattern implements BytePattern {
   readonly exec: ExecFunction;
 
   constructor(readonly source: string, readonly groupNames: readonly string[], build: (self: CompiledBytePattern) => ExecFunction,
-    readonly startBytes?: Uint8Array) {
+    readonly startBytes?: Uint8Array, readonly startBytesAfterBlanks?: Uint8Array) {
     this.capsLength = 2 * groupNames.length;
     this.exec = build(this);
   }
@@ -579,7 +583,14 @@ export function compileBytePattern(source: string): BytePattern | undefined {
     const factorySource = `"use strict";\nreturn function exec(buf, ls, le, from, caps) {\n${exec}};`;
     const factory = new Function(...tableNames, 'W', 'self', factorySource) as (...args: unknown[]) => ExecFunction;
     const startBytes = parser.anchoredAtStart && !whole.nullable ? whole.first : undefined;
-    return new CompiledBytePattern(source, parser.groupNames, (self) => factory(...writer.tables, WORD_SET, self), startBytes);
+    // `^\s*` then K: \s* takes every leading blank (possessive), so K starts at the first other byte.
+    const first = nodes[0];
+    let afterBlanks: Uint8Array | undefined;
+    if (parser.anchoredAtStart && first !== undefined && first.kind === 'atom' && first.min === 0 && first.max === Infinity && sameSet(first.set, SPACE_SET)) {
+      const rest = checkSequence(nodes.slice(1), PATTERN_END);
+      if (!rest.nullable && disjoint(rest.first, SPACE_SET)) afterBlanks = rest.first;
+    }
+    return new CompiledBytePattern(source, parser.groupNames, (self) => factory(...writer.tables, WORD_SET, self), startBytes, afterBlanks);
   } catch (error) {
     if (error instanceof Refused) return undefined;
     // Anything else is a defect in this compiler; refusing keeps settle correct (V8 runs the pattern).

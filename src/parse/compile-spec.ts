@@ -283,13 +283,17 @@ class SpecParser implements RecordParser {
     // Patterns see at most PATTERN_LINE_LIMIT characters, as on the text path (ASCII: one byte each).
     const seen = end - start > PATTERN_LINE_LIMIT ? start + PATTERN_LINE_LIMIT : end;
     const program = plan.byFirstByte[bytes[start]];
-    for (const pattern of program.ignore) if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
+    // The first byte after leading blanks (-1: blanks only), for patterns of the form ^\s*K.
+    let firstOther = start;
+    while (firstOther < seen && isBlankByte(bytes[firstOther])) firstOther++;
+    const other = firstOther < seen ? bytes[firstOther] : -1;
+    for (const pattern of program.ignore) if (mayMatchAfterBlanks(pattern, other) && pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
     for (const pattern of program.failure) {
-      if (pattern.exec(bytes, start, seen, start, plan.caps) >= 0) { assembler.fail(latin1(bytes, start, end).trim()); return; }
+      if (mayMatchAfterBlanks(pattern, other) && pattern.exec(bytes, start, seen, start, plan.caps) >= 0) { assembler.fail(latin1(bytes, start, end).trim()); return; }
     }
     let matched = false;
     for (const byteRule of program.rules) {
-      if (this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
+      if (mayMatchAfterBlanks(byteRule.pattern, other) && this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
     }
     if (!this.plan.blocks) assembler.close();
     if (!matched) assembler.noteUnmatched(latin1(bytes, start, end));
@@ -641,4 +645,15 @@ function containsBytes(bytes: Buffer, start: number, end: number, literal: Buffe
     if (k === literal.length) return true;
   }
   return false;
+}
+
+/** JS `\s` on ASCII bytes. */
+function isBlankByte(byte: number): boolean {
+  return byte === 32 || (byte >= 9 && byte <= 13);
+}
+
+/** Can a pattern match a line whose first byte after leading blanks is `other` (-1: none)? */
+function mayMatchAfterBlanks(pattern: BytePattern, other: number): boolean {
+  const after = pattern.startBytesAfterBlanks;
+  return after === undefined || other < 0 || after[other] !== 0;
 }

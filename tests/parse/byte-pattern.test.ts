@@ -122,7 +122,11 @@ function compareOn(source: string, pattern: BytePattern, regex: RegExp, line: st
   if (JSON.stringify(actual) !== JSON.stringify(expected)) {
     throw new Error(`${JSON.stringify(source)} on ${JSON.stringify(line)} from ${from}: byte matcher ${JSON.stringify(actual)}, V8 ${JSON.stringify(expected)}`);
   }
-  // The start-byte shortcut may only skip lines V8 does not match.
+  // The start-byte shortcuts may only skip lines V8 does not match.
+  const firstNonBlank = line.search(/[^\t\n\v\f\r ]/);
+  if (from === 0 && firstNonBlank >= 0 && pattern.startBytesAfterBlanks !== undefined && pattern.startBytesAfterBlanks[line.charCodeAt(firstNonBlank)] === 0 && expected !== null) {
+    throw new Error(`${JSON.stringify(source)} on ${JSON.stringify(line)}: startBytesAfterBlanks excludes its first non-blank byte, but V8 matches`);
+  }
   if (from === 0 && line.length > 0 && pattern.startBytes !== undefined && pattern.startBytes[line.charCodeAt(0)] === 0 && expected !== null) {
     throw new Error(`${JSON.stringify(source)} on ${JSON.stringify(line)}: startBytes excludes its first byte, but V8 matches`);
   }
@@ -333,6 +337,11 @@ describe('BytePattern by hand (expected values checked against V8 in the same te
     expect([residual?.[32], residual?.[9], residual?.[114], residual?.[109]]).toEqual([1, 1, 1, 0]);
     expect(compileBytePattern('residual')?.startBytes).toBeUndefined();
     expect(compileBytePattern('^\\s*')?.startBytes).toBeUndefined();
+    const afterBlanks = compileBytePattern('^\\s*residual\\s+(?<name>\\S+)')?.startBytesAfterBlanks;
+    expect([afterBlanks?.[114], afterBlanks?.[109], afterBlanks?.[32]]).toEqual([1, 0, 0]);
+    // ^\s*$ matches only lines of blanks: no byte may follow the blanks.
+    expect(compileBytePattern('^\\s*$')?.startBytesAfterBlanks?.some((b) => b !== 0)).toBe(false);
+    expect(compileBytePattern('^ *x')?.startBytesAfterBlanks).toBeUndefined();
   });
 
   it('reports its groups, their indices and the caps size', () => {
