@@ -24,7 +24,7 @@ function collidingNames(length: number, count: number): string[] {
   if (count > 26 ** free.length) throw new Error('not enough free positions');
   const names: string[] = [];
   for (let n = 0; n < count; n++) {
-    const chars = Array.from({ length }, (_, i) => (read.has(i) ? 'q' : 'A'));
+    const chars: string[] = Array.from({ length }, (_, i) => (read.has(i) ? 'q' : 'A'));
     let rest = n;
     for (const position of free) { chars[position] = String.fromCharCode(97 + (rest % 26)); rest = Math.floor(rest / 26); }
     names.push(chars.join(''));
