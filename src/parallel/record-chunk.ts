@@ -18,8 +18,7 @@ export interface RecordChunk extends CompactRecords {
   readonly endOffset: number;
 }
 
-/** Collects records into a chunk; `cut(n)` drops everything after the n-th record (a range's
- * parse going back to its last safe line). */
+/** Collects records into chunks. */
 export class RecordChunkBuilder {
   private iterations = new Float64Array(1024);
   private restarts = new Uint8Array(1024);
@@ -75,14 +74,6 @@ export class RecordChunkBuilder {
     if (this.valueCount === this.values.length) this.growValues();
     this.series[this.valueCount] = id;
     this.values[this.valueCount++] = value;
-  }
-
-  /** Keep only the first `records` records (names stay known: a name is only a table entry). */
-  cut(records: number): void {
-    if (records >= this.count) return;
-    this.count = records;
-    this.valueCount = records > 0 ? this.valueEnds[records - 1] : 0;
-    this.failures = this.failures.filter(([r]) => r < records);
   }
 
   /** The chunk of the records so far, grouped by series; the builder starts again empty. The
