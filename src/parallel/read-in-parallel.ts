@@ -85,7 +85,8 @@ export type WorkerMessage =
   | { readonly type: 'error'; readonly id: number; readonly message: string };
 
 function spawnThread(): RangeWorker {
-  return new Worker(new URL('./range-worker.js', import.meta.url)) as unknown as RangeWorker;
+  // A small young generation: the workers' garbage is short-lived; measured a few MB less peak memory.
+  return new Worker(new URL('./range-worker.js', import.meta.url), { resourceLimits: { maxYoungGenerationSizeMb: 4 } }) as unknown as RangeWorker;
 }
 
 interface RangeState {
