@@ -21,7 +21,7 @@ import { CHUNK_BYTES } from '../ingest/read-file-chunks.js';
 import { compileSpec } from '../parse/compile-spec.js';
 import type { ParserSpec } from '../parse/parser-spec.js';
 import type { KindOverrides } from '../parse/record-parser.js';
-import type { RangeParsing, RangeTotals, SeriesRegistration } from '../parse/range-parsing.js';
+import type { RangeParsing, RangeTotals } from '../parse/range-parsing.js';
 import { RecordChunkBuilder, type RecordChunk } from './record-chunk.js';
 
 export interface RangeJob {
@@ -152,4 +152,3 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
   return { start, end, handover, totals: ranges.totals(), warnings };
 }
 
-export type { SeriesRegistration };

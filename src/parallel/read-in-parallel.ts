@@ -117,9 +117,20 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
   const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workerCount * 4)));
   const rangeCount = Math.max(1, Math.ceil(size / rangeBytes));
   // Workers start while the parser is chosen (their start-up overlaps detection).
-  const workers = Array.from({ length: Math.min(workerCount, rangeCount) }, () => (options.spawn ?? spawnThread)());
+  const workers = Array.from({ length: Math.min(workerCount, rangeCount) }, () => {
+    const worker = (options.spawn ?? spawnThread)();
+    // Until the join listens (it reports a worker's failure), an early one must not go unheard.
+    worker.on('error', () => undefined);
+    return worker;
+  });
   try {
-    const { choice, parser } = target.choose(firstLines(path, options.detectionLines, maxLineBytes));
+    let sample: string[];
+    try {
+      sample = firstLines(path, options.detectionLines, maxLineBytes);
+    } catch (error) {
+      throw readFailure(path, error);
+    }
+    const { choice, parser } = target.choose(sample);
     const ranges = parser.rangeParsing();
     if (ranges === undefined) {
       await stopAll(workers);

@@ -53,8 +53,8 @@ export interface RangeParsing {
   dependsOnEarlierRecords(): boolean;
   /** Totals so far (the worker side). */
   totals(): RangeTotals;
-  /** The joining side: replay a range's registrations (those made before its `upToRecord`-th
-   * record) into this parser. */
+  /** The joining side: replay registrations of a range, in the order they were made, into this
+   * parser (with the same rules, so kinds and units come out as a sequential parse gives them). */
   replayRegistrations(registrations: readonly SeriesRegistration[]): void;
   /** The joining side: take over the totals of ranges parsed elsewhere, to go on sequentially. */
   resumeAfter(totals: RangeTotals): void;
