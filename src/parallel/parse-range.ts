@@ -69,8 +69,6 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
   let start = first ? 0 : -1;
   let end = -1;
   let handover = false;
-  /** Reading from from - 1: the first line delivered is the end of a line begun before `from`. */
-  let skipFirst = !first;
   let lastOffset = 0;
 
   const flush = (): void => {
@@ -90,7 +88,6 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
       parser.pushBatch(batch, 0, count);
     } else {
       for (let i = 0; i < count; i++) {
-        if (skipFirst) { skipFirst = false; run = i + 1; continue; }
         if (start < 0) {
           // Looking for the range's first line.
           if (at(i) >= job.to) { end = at(i); return false; }
@@ -113,9 +110,12 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
   const fd = openSync(job.path, 'r');
   try {
     const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
-    let position = first ? 0 : job.from - 1;
+    // The range's lines start at the first line start at or after `from`: skip the end of a line
+    // begun before it (never handed to the splitter, which would see a character cut in two).
+    let position = first ? 0 : firstLineStart(fd, buffer, job.from);
     let pendingStart = position;
-    let going = true;
+    let going = position >= 0;
+    if (!going) position = job.from;
     while (going) {
       const bytesRead = readSync(fd, buffer, 0, CHUNK_BYTES, position);
       if (bytesRead === 0) break;
@@ -152,3 +152,13 @@ export function parseRange(job: RangeJob, onChunk: (chunk: RecordChunk) => void)
   return { start, end, handover, totals: ranges.totals(), warnings };
 }
 
+/** The offset of the first line that starts at or after `from` (> 0), or -1 at the end of file. */
+function firstLineStart(fd: number, buffer: Buffer, from: number): number {
+  for (let position = from - 1; ;) {
+    const bytesRead = readSync(fd, buffer, 0, buffer.length, position);
+    if (bytesRead === 0) return -1;
+    const newline = buffer.subarray(0, bytesRead).indexOf(10);
+    if (newline >= 0) return position + newline + 1;
+    position += bytesRead;
+  }
+}

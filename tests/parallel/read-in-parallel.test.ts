@@ -133,6 +133,20 @@ describe('parallel read = sequential read', () => {
     expect(reference.stats?.unmatched).toBeGreaterThan(0);
   });
 
+  it('valid UTF-8 cut by range edges in the middle of a character raises no warning, as read in one piece', async () => {
+    const blocks = Array.from({ length: 300 }, (_, k) => `=== iteration ${k + 1} ===\n  residual  Δp_res  ${(0.97 ** k).toExponential(4)}\n  monitor   T_wall  ${(300 + 1 / (k + 1)).toFixed(5)}  [°C]\n`);
+    const path = write('utf8.block.log', blocks.join(''));
+    // Range sizes that are not multiples of the line lengths, so some edges fall inside Δ or °.
+    for (const rangeBytes of [997, 1301]) {
+      const ranges: string[] = [];
+      const reference = await read(path, false);
+      const joined = await read(path, { minBytes: 0, workers: 2, rangeBytes, spawn: () => inThreadWorker(ranges) });
+      expect(joined).toEqual(reference);
+      expect(joined.warnings).toEqual([]);
+      expect(ranges.length).toBeGreaterThan(5);
+    }
+  });
+
   it('a table log (columns need their header) is read sequentially, with the same result', async () => {
     const rows = Array.from({ length: 200 }, (_, k) => `${k + 1} ${(0.9 ** k).toExponential(3)} ${(1 + 1 / (k + 1)).toFixed(4)}`);
     const ranges = await expectSameBothWays(write('t.table.log', `iter res_p drag\n${rows.join('\n')}\n`), 500);
