@@ -25,9 +25,11 @@ import { SettleError, UsageError } from '../errors.js';
 import type { LineSink, LineSource, LineSourceOptions } from './line-source.js';
 import { DEFAULT_MAX_LINE_BYTES, LineSplitter, type SplitterWarning } from './line-splitter.js';
 import { ProgressReporter } from './progress-reporter.js';
+import { peekStreamHead } from './peek-stream-head.js';
+import { Readable } from 'node:stream';
 import { ChunkBuffers, readFileChunks } from './read-file-chunks.js';
 import { readStreamChunks } from './read-stream-chunks.js';
-import { readGzipFile, startsWithGzipMagic } from './read-gzip-file.js';
+import { readGzipFile, readGzipStream, startsWithGzipMagic } from './read-gzip-file.js';
 import { errorCodeOf, isSystemError, readFailure } from './read-failure.js';
 import { FileFollower } from './file-follower.js';
 
@@ -134,8 +136,23 @@ class LogLineSource implements LineSource {
     const stream = this.options.stdin ?? process.stdin;
     const splitter = this.splitterFor('standard input', sink);
     sink.onEvent({ type: 'opened', path: '-', index: 0 });
+    const onChunk = (chunk: Buffer): void => splitter.pushBatches(chunk, (batch) => sink.onLines(batch));
     try {
-      await readStreamChunks(stream, (chunk) => splitter.pushBatches(chunk, (batch) => sink.onLines(batch)), { signal: this.abort.signal });
+      // gzip data is told by its magic number, as for files (`zcat run.log.gz | settle check -` and
+      // `settle check - < run.log.gz` both work).
+      const { head, ended } = await peekStreamHead(stream, 2, this.abort.signal);
+      // A stream that ended while peeked holds just its head.
+      const rest = ended ? Readable.from([head]) : stream;
+      if (startsWithGzipMagic(head) && !this.closing) {
+        const outcome = await readGzipStream(rest, 'standard input', onChunk, { signal: this.abort.signal });
+        if (outcome === 'cut-short') {
+          sink.onEvent({ type: 'warning', message: 'standard input: the compressed data ends early (cut short?); read what was there' });
+        }
+      } else if (ended) {
+        if (head.length > 0) onChunk(head);
+      } else {
+        await readStreamChunks(stream, onChunk, { signal: this.abort.signal });
+      }
     } catch (error) {
       if (errorCodeOf(error) !== undefined && !(error instanceof SettleError)) throw readFailure('standard input', error);
       throw error;

@@ -10,7 +10,6 @@
  * Cost: O(compressed + decompressed bytes); memory a few stream buffers.
  */
 import type { FileHandle } from 'node:fs/promises';
-import { pipeline } from 'node:stream';
 import { createGunzip } from 'node:zlib';
 import { InputError } from '../errors.js';
 import { CHUNK_BYTES } from './read-file-chunks.js';
@@ -40,10 +39,29 @@ export async function readGzipFile(
   options: ReadGzipOptions = {},
 ): Promise<GzipOutcome> {
   const raw = handle.createReadStream({ start: 0, highWaterMark: CHUNK_BYTES, autoClose: false });
-  const gunzip = createGunzip({ chunkSize: 256 * 1024 });
   const onCompressed = options.onCompressedBytes;
   if (onCompressed) raw.on('data', () => onCompressed(raw.bytesRead));
-  pipeline(raw, gunzip, () => undefined); // errors reach us through gunzip
+  try {
+    return await readGzipStream(raw, path, onChunk, options);
+  } finally {
+    raw.destroy();
+  }
+}
+
+/**
+ * The same for a stream of gzip data (standard input): decompressed chunks go to `onChunk`. The
+ * source stream is piped, not owned: it is not destroyed at the end (standard input stays usable).
+ */
+export async function readGzipStream(
+  raw: NodeJS.ReadableStream,
+  name: string,
+  onChunk: (chunk: Buffer) => void,
+  options: ReadGzipOptions = {},
+): Promise<GzipOutcome> {
+  const gunzip = createGunzip({ chunkSize: 256 * 1024 });
+  const forwardError = (error: Error): void => { gunzip.destroy(error); };
+  raw.on('error', forwardError);
+  raw.pipe(gunzip);
   try {
     await readStreamChunks(gunzip, onChunk, { signal: options.signal });
     return 'complete';
@@ -51,12 +69,13 @@ export async function readGzipFile(
     const code = errorCodeOf(error);
     if (code === 'Z_BUF_ERROR') return 'cut-short';
     if (code !== undefined && code.startsWith('Z_')) {
-      throw new InputError(`cannot read ${path}: not valid gzip data (${(error as Error).message})`,
+      throw new InputError(`cannot read ${name}: not valid gzip data (${(error as Error).message})`,
         'check that the file was copied completely, or decompress it yourself and read the result');
     }
     throw error;
   } finally {
-    raw.destroy();
+    raw.removeListener('error', forwardError);
+    raw.unpipe(gunzip);
     gunzip.destroy();
   }
 }

@@ -249,6 +249,44 @@ describe('openLineSource, standard input', () => {
     expect(sink.eventTypes()).toEqual(['opened', 'end']);
   });
 
+  // gzip is told by its magic number (RFC 1952, section 2.3.1: 0x1f 0x8b), as for files.
+  const gzipText = Array.from({ length: 2000 }, (_, k) => `iter=${k + 1} r=${(0.99 ** k).toExponential(3)}`);
+  async function readStdin(pieces: readonly Buffer[]): Promise<CollectingSink> {
+    const stdin = new PassThrough();
+    const source = openLineSource({ paths: ['-'], follow: false, stdin });
+    const sink = new CollectingSink();
+    const done = source.run(sink);
+    for (const piece of pieces) {
+      stdin.write(piece);
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+    stdin.end();
+    await done;
+    return sink;
+  }
+
+  it('reads gzip data on standard input, even when its first two bytes arrive apart', async () => {
+    const gz = gzipSync(`${gzipText.join('\n')}\n`);
+    const sink = await readStdin([gz.subarray(0, 1), gz.subarray(1, 7), gz.subarray(7, 5000), gz.subarray(5000)]);
+    expect(sink.lines).toEqual(gzipText);
+    expect(sink.warnings()).toEqual([]);
+    expect(sink.eventTypes()).toEqual(['opened', 'end']);
+  });
+
+  it('reads cut-off gzip data on standard input as far as it goes, with a warning', async () => {
+    const gz = gzipSync(`${gzipText.join('\n')}\n`);
+    const sink = await readStdin([gz.subarray(0, Math.floor(gz.length * 0.6))]);
+    expect(sink.lines.length).toBeGreaterThan(100);
+    expect(sink.lines.length).toBeLessThan(gzipText.length);
+    expect(sink.lines.slice(0, 100)).toEqual(gzipText.slice(0, 100));
+    expect(sink.warnings()).toEqual(['standard input: the compressed data ends early (cut short?); read what was there']);
+  });
+
+  it('reads plain text whose first bytes arrive one at a time, and an empty standard input', async () => {
+    expect((await readStdin([Buffer.from('i'), Buffer.from('t'), Buffer.from('er=1\niter=2\n')])).lines).toEqual(['iter=1', 'iter=2']);
+    expect((await readStdin([])).lines).toEqual([]);
+  });
+
   it('stops reading standard input on close() without destroying the stream', async () => {
     const stdin = new PassThrough();
     const source = openLineSource({ paths: ['-'], follow: true, stdin });
