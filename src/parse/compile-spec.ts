@@ -584,8 +584,9 @@ class SpecParser implements RecordParser {
     };
   }
 
-  /** Would line i of the batch close the open record and open a new one (a rule marked
-   * startsRecord matches it, and it is neither empty, ignored nor a failure line)? */
+  /** Can line i of the batch start a range: is it neither empty, ignored nor a failure line, and
+   * is the first rule that matches it one marked startsRecord (so that the line closes the open
+   * record before it adds anything)? */
   private opensRecord(batch: LineBatch, i: number): boolean {
     const plan = this.plan;
     const bytes = plan.bytes;
@@ -598,10 +599,11 @@ class SpecParser implements RecordParser {
       const program = bytes.byFirstByte[data[start]];
       for (const pattern of program.ignore) if (pattern.exec(data, start, seen, start, bytes.caps) >= 0) return false;
       for (const pattern of program.failure) if (pattern.exec(data, start, seen, start, bytes.caps) >= 0) return false;
+      // The first rule that matches decides: a rule before the one that opens the record would
+      // add to the record being closed, so the line could not start a range.
       for (const byteRule of program.rules) {
-        if (!byteRule.rule.startsRecord) continue;
         if (byteRule.contains !== undefined && !containsBytes(data, start, end, byteRule.contains)) continue;
-        if (byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return true;
+        if (byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return byteRule.rule.startsRecord;
       }
       return false;
     }
@@ -609,12 +611,9 @@ class SpecParser implements RecordParser {
     if (line.length === 0) return false;
     if (plan.ignore.some((pattern) => pattern.test(line)) || plan.failure.some((pattern) => pattern.test(line))) return false;
     for (const rule of plan.rules) {
-      if (!rule.startsRecord) continue;
-      if (rule.type === 'keyValues') {
-        if (rule.contains === undefined || line.includes(rule.contains)) return true;
-      } else if ((rule.pattern as UserPattern).test(line)) {
-        return true;
-      }
+      // A name/value rule counts as matching whenever it looks at the line (it may find pairs).
+      const matches = rule.type === 'keyValues' ? rule.contains === undefined || line.includes(rule.contains) : (rule.pattern as UserPattern).test(line);
+      if (matches) return rule.startsRecord;
     }
     return false;
   }

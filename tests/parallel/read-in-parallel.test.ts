@@ -147,6 +147,31 @@ describe('parallel read = sequential read', () => {
     }
   });
 
+  it('a line that both adds to the record and opens the next one is never a range edge (the record it closes would lose that value)', async () => {
+    // Rule order matters: the pair rule comes first, so on "step N res=..." the value goes into the
+    // record being closed, then the step rule opens a new one.
+    const spec = {
+      id: 'test-close-after-value', description: 'value before the record opener', detect: { patterns: ['^step '] },
+      lines: { rules: [
+        { match: '(?<name>res)=(?<value>\\S+)', pairs: { kind: 'residual' } },
+        { match: '^step (?<iteration>[0-9]+)', startsRecord: true },
+        { match: '^\\s+(?<name>[a-z]+) (?<value>\\S+)', pairs: {} },
+      ] },
+    };
+    const specFile = write('close-after-value.json', JSON.stringify(spec));
+    const lines: string[] = [];
+    for (let k = 1; k <= 300; k++) lines.push(`step ${k} res=${(0.9 ** k).toExponential(3)}`, `  drag ${(1 + 1 / k).toFixed(5)}`);
+    const path = write('close-after-value.log', `${lines.join('\n')}\n`);
+    const readWith = async (parallel: RunMonitorOptions['parallel']) => {
+      const monitor = createRunMonitor({ paths: [path], follow: false, parserFiles: [specFile], kindOverrides: { residual: [], quantity: [] }, criteria: DEFAULT_CRITERIA, parallel });
+      await monitor.run();
+      return monitor.store.snapshot().series.map((column) => [column.info.name, [...column.iterations.subarray(0, column.length)], [...column.values.subarray(0, column.length)]]);
+    };
+    const ranges: string[] = [];
+    const reference = await readWith(false);
+    expect(await readWith({ minBytes: 0, workers: 2, rangeBytes: 700, spawn: () => inThreadWorker(ranges) })).toEqual(reference);
+  });
+
   it('a table log (columns need their header) is read sequentially, with the same result', async () => {
     const rows = Array.from({ length: 200 }, (_, k) => `${k + 1} ${(0.9 ** k).toExponential(3)} ${(1 + 1 / (k + 1)).toFixed(4)}`);
     const ranges = await expectSameBothWays(write('t.table.log', `iter res_p drag\n${rows.join('\n')}\n`), 500);
