@@ -2,6 +2,12 @@
  * Compiles a validated parser spec into a `RecordParser` factory. Patterns are compiled once; each
  * line then costs a few literal pre-filter checks, at most the regular expressions whose literal is
  * present, number lexing, and the record itself.
+ *
+ * Two paths give the same records: the text path (V8 regular expressions on the line's text, the
+ * reference) and the byte path (ASCII lines of a batch, when every pattern of a `lines` spec
+ * compiles to a byte matcher: patterns tried only when the line's first bytes allow them, values
+ * and names read from the bytes, no string per line). Tested record for record against each other.
+ * `rangeParsing` says how a finished log can be parsed in ranges by worker threads.
  */
 import type { SeriesInfo, SeriesKind } from './log-record.js';
 import type { KindOverrides, ParseStats, RecordParser, RecordSink, RecordSinkOptions } from './record-parser.js';
