@@ -230,6 +230,9 @@ async function joinRanges(options: ParallelReadOptions, size: number, count: num
       const end = state.end as RangeEnd;
       for (const kind of end.warnings) warn(kind);
       if (end.handover) return end.start;
+      // Time steps carry from record to record: a log that has them is read in one piece (the
+      // first range ends before anything was joined).
+      if (k === 0 && end.totals.timeSteps === true) return 0;
       if (end.start < 0) continue;
       let boundaryRestart = 0;
       let emitted = 0;

@@ -569,17 +569,18 @@ class SpecParser implements RecordParser {
 
   rangeParsing(): RangeParsing | undefined {
     const plan = this.plan;
-    // Table rows need the header before them; time steps carry from record to record.
-    if (plan.tableHeader !== undefined) return undefined;
-    if (plan.spec.counters?.step !== undefined || plan.spec.counters?.time !== undefined || plan.spec.counters?.inner !== undefined) return undefined;
-    if (plan.rules.some((rule) => rule.counters.some((counter) => counter !== 'iteration'))) return undefined;
     const assembler = this.assembler;
+    // A table's rows need the header before them: a range starts at a header row (each row is a
+    // record of its own, so nothing else carries over from the lines before).
+    const table = plan.tableHeader !== undefined;
     return {
-      boundary: plan.blocks ? 'record' : 'line',
-      isBoundaryLine: (batch, i) => !plan.blocks || this.opensRecord(batch, i),
+      boundary: plan.blocks || table ? 'record' : 'line',
+      isBoundaryLine: (batch, i) => (table ? this.isHeaderRow(batch.text(i)) : !plan.blocks || this.opensRecord(batch, i)),
       recordRegistrations: () => (this.registrations = []),
-      dependsOnEarlierRecords: () => assembler.dependsOnEarlierRecords,
-      totals: () => ({ ...assembler.stats(), lastIteration: assembler.lastIterationNumber }),
+      // Time steps carry from record to record (checked as the log is read: a spec may name step
+      // and time columns that a log does not have).
+      dependsOnEarlierRecords: () => assembler.dependsOnEarlierRecords || assembler.usesTimeSteps,
+      totals: () => ({ ...assembler.stats(), lastIteration: assembler.lastIterationNumber, timeSteps: assembler.usesTimeSteps }),
       replayRegistrations: (registrations) => {
         for (const r of registrations) {
           if (!r.fromPair) this.register(r.name, r.ruleKind, r.unit, r.label);
@@ -588,6 +589,13 @@ class SpecParser implements RecordParser {
       },
       resumeAfter: (totals) => assembler.resumeAfter(totals),
     };
+  }
+
+  /** Is this line a table's header row (as pushLine would take it: not ignored, not a failure)? */
+  private isHeaderRow(line: string): boolean {
+    const plan = this.plan;
+    if (line.length === 0 || plan.ignore.some((pattern) => pattern.test(line)) || plan.failure.some((pattern) => pattern.test(line))) return false;
+    return (plan.tableHeader as UserPattern).test(line);
   }
 
   /** Can line i of the batch start a range: is it neither empty, ignored nor a failure line, and

@@ -3,16 +3,17 @@
  * the pieces so that the result is exactly that of one sequential parse.
  *
  * A parser's state at a line is, in general, everything before it. For logs without time steps it
- * reduces, at a line that opens a record (or at any line, when every line is a record of its own),
- * to: the counts, the series met so far, and the last iteration number (which the next record's
- * restart check compares with). So a range is parsed from such a "boundary line" by a fresh parser
+ * reduces, at a line that opens a record (or at any line, when every line is a record of its own;
+ * at a header row, for tables), to: the counts, the series met so far, and the last iteration
+ * number (which the next record's restart check compares with). So a range is parsed from such a "boundary line" by a fresh parser
  * that records three things for the join:
  * - the series it registered, in order (`SeriesRegistration`), replayed into the joined parser with
  *   the same rules, so kinds and units come out as if registered there;
  * - its counts and last iteration (`RangeTotals`);
  * - whether any record depended on what came before the range (an iteration numbered from the
- *   count of earlier records, a crash line with no record of its own): then the range is exact
- *   only up to that record, and the rest of the log is parsed sequentially from there.
+ *   count of earlier records, a crash line with no record of its own, a time step carried
+ *   forward): then the rest of the log is parsed sequentially from the range's start. A first
+ *   range that read time steps sends the whole log to a sequential read.
  * The first record of a range gets the restart check against the previous range's last
  * iteration when the pieces are joined.
  */
@@ -40,6 +41,8 @@ export interface RangeTotals {
   readonly records: number;
   readonly restarts: number;
   readonly lastIteration?: number;
+  /** The range read time steps (a log with time steps is read in one piece). */
+  readonly timeSteps?: boolean;
 }
 
 export interface RangeParsing {

@@ -44,6 +44,9 @@ export class RecordAssembler {
    * no iteration of its own. A parse of a range that starts mid-log is exact only while this is
    * false (see parse/range-parsing.ts). */
   dependsOnEarlierRecords = false;
+  /** Set once a step, time or inner counter was read: records then carry time steps forward
+   * (sticky step and time, inner counts), which a range parsed apart cannot know. */
+  usesTimeSteps = false;
 
   /** `reuseValues`: the sink copies each record (see RecordSinkOptions.copies), so one values
    * object serves every record. */
@@ -68,6 +71,7 @@ export class RecordAssembler {
   setCounter(name: 'iteration' | 'step' | 'time' | 'inner', value: number): void {
     this.current();
     this.counterCaptured = true;
+    if (name !== 'iteration') this.usesTimeSteps = true;
     switch (name) {
       case 'iteration': this.iteration = value; break;
       case 'step': this.step = value; this.stickyStep = value; break;

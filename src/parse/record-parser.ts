@@ -47,7 +47,7 @@ export interface RecordParser {
   seriesInfo(): ReadonlyMap<string, SeriesInfo>;
   stats(): ParseStats;
   /** How this parser can parse a finished log in ranges (worker threads), or undefined when it
-   * cannot (table headers and time steps carry state from line to line). */
+   * cannot (time steps carry state from record to record). */
   rangeParsing(): RangeParsing | undefined;
 }
 

@@ -57,6 +57,8 @@ async function read(path: string, parallel: RunMonitorOptions['parallel']) {
     lastIteration: snapshot.lastIteration,
     restarts: [...snapshot.restarts],
     failure: snapshot.failure,
+    transient: snapshot.transient,
+    timeSteps: snapshot.timeSteps?.map((step) => ({ ...step })),
     series: snapshot.series.map((column) => ({
       info: column.info,
       totalAdded: column.totalAdded,
@@ -172,9 +174,33 @@ describe('parallel read = sequential read', () => {
     expect(await readWith({ minBytes: 0, workers: 2, rangeBytes: 700, spawn: () => inThreadWorker(ranges) })).toEqual(reference);
   });
 
-  it('a table log (columns need their header) is read sequentially, with the same result', async () => {
-    const rows = Array.from({ length: 200 }, (_, k) => `${k + 1} ${(0.9 ** k).toExponential(3)} ${(1 + 1 / (k + 1)).toFixed(4)}`);
-    const ranges = await expectSameBothWays(write('t.table.log', `iter res_p drag\n${rows.join('\n')}\n`), 500);
-    expect(ranges).toEqual([]);
+  it('time steps that appear only late in the log hand over to a sequential read from that range, and agree', async () => {
+    const lines: string[] = [];
+    for (let k = 1; k <= 300; k++) lines.push(`iter=${k} res_p=${(0.97 ** k).toExponential(3)}`);
+    for (let k = 301; k <= 600; k++) lines.push(`step=${Math.ceil((k - 300) / 5)} time=${(0.01 * Math.ceil((k - 300) / 5)).toFixed(2)} iter=${k} res_p=${(0.97 ** (k % 40)).toExponential(3)}`);
+    const ranges = await expectSameBothWays(write('late-steps.kv.log', `${lines.join('\n')}\n`), 1200);
+    expect(ranges.some((r) => r.endsWith('handover'))).toBe(true);
+  });
+
+  it('a log with time steps from the start is read in one piece, with the same result', async () => {
+    await expectSameBothWays(join(SAMPLES, 'periodic-heat-transient.kv.log'), 1500);
+    // Inner iterations counted by the parser (no inner counter in the log), steps across range edges.
+    const lines: string[] = [];
+    for (let k = 1; k <= 700; k++) lines.push(`step=${Math.ceil(k / 7)} time=${(0.5 * Math.ceil(k / 7)).toFixed(1)} res_p=${(0.8 ** (k % 7)).toExponential(3)}`);
+    await expectSameBothWays(write('steps.kv.log', `${lines.join('\n')}\n`), 1000);
+  });
+
+  it('a table log starts its ranges at header rows: with the header repeated, ranges are used; with one header, the first range reads it all', async () => {
+    const row = (k: number): string => `${k} ${(0.9 ** k).toExponential(3)} ${(1 + 1 / k).toFixed(4)}`;
+    const repeated: string[] = [];
+    for (let k = 1; k <= 400; k++) {
+      if (k % 25 === 1) repeated.push('iter res_p drag');
+      repeated.push(row(k));
+    }
+    const many = await expectSameBothWays(write('repeated.table.log', `${repeated.join('\n')}\n`), 700);
+    expect(many.filter((r) => !r.includes(':-1')).length).toBeGreaterThan(3);
+    const single = Array.from({ length: 200 }, (_, k) => row(k + 1));
+    const one = await expectSameBothWays(write('t.table.log', `iter res_p drag\n${single.join('\n')}\n`), 500);
+    expect(one.filter((r) => !r.includes(':-1'))).toHaveLength(1);
   });
 });
