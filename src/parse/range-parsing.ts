@@ -3,8 +3,8 @@
  * the pieces so that the result is exactly that of one sequential parse.
  *
  * A parser's state at a line is, in general, everything before it. For logs without time steps it
- * reduces, at a line that opens a record (or at any line, when every line is a record of its own;
- * at a header row, for tables), to: the counts, the series met so far, and the last iteration
+ * reduces, at a line that opens a record (or at any line, when every line is a record of its own),
+ * to: the counts, the series met so far, and the last iteration
  * number (which the next record's restart check compares with). So a range is parsed from such a "boundary line" by a fresh parser
  * that records three things for the join:
  * - the series it registered, in order (`SeriesRegistration`), replayed into the joined parser with

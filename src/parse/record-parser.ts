@@ -47,7 +47,7 @@ export interface RecordParser {
   seriesInfo(): ReadonlyMap<string, SeriesInfo>;
   stats(): ParseStats;
   /** How this parser can parse a finished log in ranges (worker threads), or undefined when it
-   * cannot (time steps carry state from record to record). */
+   * should not (specs on the text path; logs with time steps are found out while reading). */
   rangeParsing(): RangeParsing | undefined;
 }
 
