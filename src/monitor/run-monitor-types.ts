@@ -32,7 +32,7 @@ export interface RunMonitorOptions {
   readonly now?: () => number;
   /** Reading one big finished file with worker threads (see parallel/read-in-parallel.ts): `false`
    * turns it off; the fields override its defaults (tests use small ranges). */
-  readonly parallel?: false | { readonly workers?: number; readonly rangeBytes?: number; readonly minBytes?: number; readonly spawn?: () => RangeWorker };
+  readonly parallel?: false | { readonly workers?: number; readonly rangeBytes?: number; readonly minBytes?: number; readonly oneLineRecords?: boolean; readonly spawn?: () => RangeWorker };
 }
 
 export interface MonitorPace {

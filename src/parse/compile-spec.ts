@@ -17,7 +17,7 @@ import { compileBytePattern, type BytePattern } from './byte-pattern.js';
 import { ByteNames, latin1 } from './byte-names.js';
 import { globMatcher } from '../text/glob.js';
 import { lexNumber, lexNumberBytes, lexNumberIn } from './lex-number.js';
-import { scanKeyValues } from './scan-key-values.js';
+import { scanKeyValues, scanKeyValuesBytes } from './scan-key-values.js';
 import { splitFieldBounds, splitFields } from './split-fields.js';
 
 /** A table cell with no number in it. */
@@ -67,10 +67,12 @@ interface Plan {
   readonly bytes?: BytePlan;
 }
 
-/** A rule whose pattern runs on bytes; capture k of the pattern is caps[2k], caps[2k + 1]. */
+/** A rule that runs on bytes: a pattern (capture k of the pattern is caps[2k], caps[2k + 1]), or
+ * the name/value scanner (`assign`: its sign as bytes). */
 interface ByteRule {
   readonly rule: CompiledRule;
-  readonly pattern: BytePattern;
+  readonly pattern?: BytePattern;
+  readonly assign?: Uint8Array;
   readonly caps: Int32Array;
   /** Literal the line must contain before the pattern runs, when the pattern does not imply it
    * (a spec's `contains` is a condition of its own: the text path checks it too). */
@@ -101,7 +103,7 @@ interface LineProgram {
 }
 
 function programFor(byte: number, ignore: readonly BytePattern[], failure: readonly BytePattern[], rules: readonly ByteRule[]): LineProgram {
-  const may = (pattern: BytePattern): boolean => pattern.startBytes === undefined || pattern.startBytes[byte] !== 0;
+  const may = (pattern: BytePattern | undefined): boolean => pattern === undefined || pattern.startBytes === undefined || pattern.startBytes[byte] !== 0;
   return { ignore: ignore.filter(may), failure: failure.filter(may), rules: rules.filter((rule) => may(rule.pattern)) };
 }
 
@@ -140,7 +142,7 @@ function planSpec(spec: ParserSpec, overrides: KindOverrides): Plan {
   };
 }
 
-/** The byte plan, or undefined when some pattern (or a keyValues rule) has no byte matcher. */
+/** The byte plan, or undefined when some pattern has no byte matcher. */
 function planBytes(ignore: readonly string[], failure: readonly string[], specRules: readonly LineRule[], rules: readonly CompiledRule[]): BytePlan | undefined {
   if (rules.length === 0) return undefined;
   const compileAll = (sources: readonly string[]): BytePattern[] | undefined => {
@@ -154,7 +156,15 @@ function planBytes(ignore: readonly string[], failure: readonly string[], specRu
   for (let r = 0; r < rules.length; r++) {
     const rule = rules[r];
     const specRule = specRules[r];
-    if (rule.type === 'keyValues' || !('match' in specRule)) return undefined;
+    if (rule.type === 'keyValues') {
+      byteRules.push({
+        rule, assign: Buffer.from(rule.assign, 'latin1'), caps: new Int32Array(2),
+        contains: rule.contains !== undefined ? Buffer.from(rule.contains, 'utf8') : undefined,
+        counters: [], groups: [], hasGroups: false, nameCap: -1, valueCap: -1, unitCap: -1,
+      });
+      continue;
+    }
+    if (!('match' in specRule)) return undefined;
     const pattern = compileBytePattern(specRule.match);
     if (pattern === undefined) return undefined;
     const implied = leadingLiteral(specRule.match)?.text ?? '';
@@ -234,6 +244,11 @@ class SpecParser implements RecordParser {
   private readonly onPair = (name: string, line: string, valueStart: number, valueEnd: number, index: number): boolean => {
     const value = lexNumberIn(line, valueStart, valueEnd);
     if (value === undefined) return false;
+    return this.takePair(name, value, index);
+  };
+
+  /** A pair the name/value scanner found (text or bytes), at its position on the line. */
+  private takePair(name: string, value: number, index: number): boolean {
     if (this.slotName[index] === name) {
       // Seen at this position before: a known counter or an already registered series.
       this.pairsSeen++;
@@ -246,6 +261,18 @@ class SpecParser implements RecordParser {
     this.slotName[index] = name;
     this.slotCounter[index] = this.plan.counterOf.get(name);
     return true;
+  }
+
+  /** The line's bytes while the name/value scanner runs on them. */
+  private pairBytes: Buffer = Buffer.alloc(0);
+  /** onPair for the byte path: the same rules, the name and value read from the bytes. */
+  private readonly onBytePair = (nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number): boolean => {
+    const bytes = this.pairBytes;
+    const value = lexNumberBytes(bytes, valueStart, valueEnd);
+    if (value === undefined) return false;
+    const known = this.byteNames.indexOf(bytes, nameStart, nameEnd);
+    const name = known >= 0 ? this.byteNames.nameAt(known) : latin1(bytes, nameStart, nameEnd);
+    return this.takePair(name, value, index);
   };
 
   constructor(private readonly plan: Plan, sink: RecordSink, sinkCopies: boolean) {
@@ -299,7 +326,7 @@ class SpecParser implements RecordParser {
     }
     let matched = false;
     for (const byteRule of program.rules) {
-      if (mayMatchAfterBlanks(byteRule.pattern, other) && this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
+      if ((byteRule.pattern === undefined || mayMatchAfterBlanks(byteRule.pattern, other)) && this.applyByteRule(byteRule, bytes, start, seen, end)) matched = true;
     }
     if (!this.plan.blocks) assembler.close();
     if (!matched) assembler.noteUnmatched(latin1(bytes, start, end));
@@ -309,7 +336,17 @@ class SpecParser implements RecordParser {
    * line's end (a `contains` condition looks at the whole line, as on the text path). */
   private applyByteRule(byteRule: ByteRule, bytes: Buffer, start: number, end: number, lineEnd: number): boolean {
     if (byteRule.contains !== undefined && !containsBytes(bytes, start, lineEnd, byteRule.contains)) return false;
-    const { pattern, caps, rule } = byteRule;
+    const { caps, rule } = byteRule;
+    const pattern = byteRule.pattern;
+    if (pattern === undefined) {
+      // The name/value scanner, on the whole line as on the text path.
+      if (rule.startsRecord) this.assembler.close();
+      this.pairKind = rule.kind;
+      this.pairsSeen = 0;
+      this.pairBytes = bytes;
+      scanKeyValuesBytes(bytes, start, lineEnd, byteRule.assign as Uint8Array, this.onBytePair);
+      return this.pairsSeen > 0;
+    }
     const matchEnd = pattern.exec(bytes, start, end, start, caps);
     if (matchEnd < 0) return false;
     const assembler = this.assembler;
@@ -611,7 +648,8 @@ class SpecParser implements RecordParser {
       // add to the record being closed, so the line could not start a range.
       for (const byteRule of program.rules) {
         if (byteRule.contains !== undefined && !containsBytes(data, start, end, byteRule.contains)) continue;
-        if (byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return byteRule.rule.startsRecord;
+        // A name/value rule counts as matching whenever it looks at the line (it may find pairs).
+        if (byteRule.pattern === undefined || byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return byteRule.rule.startsRecord;
       }
       return false;
     }

@@ -72,3 +72,62 @@ export function scanKeyValues(line: string, assign: string, visit: PairVisitor, 
   }
   return taken;
 }
+
+/** Called for each candidate pair found on bytes: name at [nameStart, nameEnd), value at
+ * [valueStart, valueEnd), index of the pair on the line. Returns whether it took the pair. */
+export type BytePairVisitor = (nameStart: number, nameEnd: number, valueStart: number, valueEnd: number, index: number) => boolean;
+
+/**
+ * `scanKeyValues` on the bytes of an ASCII line (bytes[start, end)): the same pairs, at the same
+ * places, offered in the same order (property-tested against the string scanner). `assign` is the
+ * sign as bytes. Names are not cached here (the caller reads them from the bytes).
+ */
+export function scanKeyValuesBytes(bytes: Uint8Array, start: number, end: number, assign: Uint8Array, visit: BytePairVisitor): number {
+  const step = assign.length;
+  let pos = start;
+  let taken = 0;
+  while (pos < end) {
+    const at = indexOfBytes(bytes, assign, pos, end);
+    if (at < 0) break;
+    let nameEnd = at;
+    while (nameEnd > pos && isBlank(bytes[nameEnd - 1])) nameEnd--;
+    let nameStart = nameEnd;
+    while (nameStart > pos && !isDelimiter(bytes[nameStart - 1])) nameStart--;
+    let valueStart = at + step;
+    while (valueStart < end && isBlank(bytes[valueStart])) valueStart++;
+    let valueEnd = valueStart;
+    while (valueEnd < end && bytes[valueEnd] !== 32) valueEnd++;
+    const first = bytes[nameStart];
+    if (nameEnd > nameStart && valueEnd > valueStart && !(first >= 48 && first <= 57)) {
+      if (visit(nameStart, nameEnd, valueStart, valueEnd, taken)) {
+        taken++;
+      } else {
+        let cut = valueStart;
+        while (cut < valueEnd && !isDelimiter(bytes[cut])) cut++;
+        if (cut < valueEnd) {
+          valueEnd = cut;
+          if (cut > valueStart && visit(nameStart, nameEnd, valueStart, valueEnd, taken)) taken++;
+        }
+      }
+    } else if (valueEnd > valueStart) {
+      let cut = valueStart;
+      while (cut < valueEnd && !isDelimiter(bytes[cut])) cut++;
+      valueEnd = cut;
+    }
+    pos = valueEnd > at + step ? valueEnd : at + step;
+  }
+  return taken;
+}
+
+/** First index of `needle` in bytes[from, end), or -1. */
+function indexOfBytes(bytes: Uint8Array, needle: Uint8Array, from: number, end: number): number {
+  const first = needle[0];
+  const last = end - needle.length;
+  for (let i = from; i <= last; i++) {
+    if (bytes[i] !== first) continue;
+    let k = 1;
+    while (k < needle.length && bytes[i + k] === needle[k]) k++;
+    if (k === needle.length) return i;
+  }
+  return -1;
+}

@@ -75,7 +75,7 @@ async function read(path: string, parallel: RunMonitorOptions['parallel'], parse
 async function expectSameBothWays(path: string, rangeBytes: number, parserFiles: readonly string[] = []): Promise<string[]> {
   const ranges: string[] = [];
   const reference = await read(path, false, parserFiles);
-  const joined = await read(path, { minBytes: 0, workers: 2, rangeBytes, spawn: () => inThreadWorker(ranges) }, parserFiles);
+  const joined = await read(path, { minBytes: 0, workers: 2, rangeBytes, oneLineRecords: true, spawn: () => inThreadWorker(ranges) }, parserFiles);
   expect(joined).toEqual(reference);
   return ranges;
 }
@@ -129,7 +129,7 @@ describe('parallel read = sequential read', () => {
     const path = write('mixed.block.log', Buffer.concat(parts.map((p) => (typeof p === 'string' ? Buffer.from(p) : p))));
     const ranges: string[] = [];
     const reference = await read(path, false);
-    const joined = await read(path, { minBytes: 0, workers: 2, rangeBytes: 800, spawn: () => inThreadWorker(ranges) });
+    const joined = await read(path, { minBytes: 0, workers: 2, rangeBytes: 800, oneLineRecords: true, spawn: () => inThreadWorker(ranges) });
     expect(joined).toEqual(reference);
     expect(reference.series.find((s) => s.info.name === 'q')?.info.unit).toBe('W');
     expect(reference.stats?.unmatched).toBeGreaterThan(0);
@@ -200,10 +200,17 @@ describe('parallel read = sequential read', () => {
     await expectSameBothWays(join(SAMPLES, 'periodic-heat-transient.kv.log'), 1500);
   });
 
-  it('formats on the text path (here name = value pairs, and a table) are read in one piece, with the same result', async () => {
+  it('formats on the text path (here a table) are read in one piece, with the same result', async () => {
     const rows = Array.from({ length: 300 }, (_, k) => `${k + 1} ${(0.9 ** k).toExponential(3)} ${(1 + 1 / (k + 1)).toFixed(4)}`);
     expect(await expectSameBothWays(write('t.table.log', `iter res_p drag\n${rows.join('\n')}\n`), 500)).toEqual([]);
+  });
+
+  it('formats of one record per line are read in one piece unless asked (the default on two cores)', async () => {
     const pairs = Array.from({ length: 300 }, (_, k) => `iter=${k + 1} res_p=${(0.97 ** k).toExponential(3)}`);
-    expect(await expectSameBothWays(write('p.kv.log', `${pairs.join('\n')}\n`), 500)).toEqual([]);
+    const path = write('p.kv.log', `${pairs.join('\n')}\n`);
+    const ranges: string[] = [];
+    expect(await read(path, { minBytes: 0, workers: 2, rangeBytes: 500, spawn: () => inThreadWorker(ranges) })).toEqual(await read(path, false));
+    expect(ranges).toEqual([]);
+    expect((await expectSameBothWays(path, 500)).length).toBeGreaterThan(3);
   });
 });

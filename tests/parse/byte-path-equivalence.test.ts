@@ -71,6 +71,16 @@ describe('byte path = text path on every sample log', () => {
 /** Specs that exercise every kind of rule on the byte path: counters, fixed groups, pairs with
  * units and repeats, ignore and failure lines, a `contains` the pattern does not imply. */
 const BLOCK = loadParserSpecs({ files: [], configDir: null }).find((s) => s.spec.id === 'settle-block')!.spec;
+const KV = loadParserSpecs({ files: [], configDir: null }).find((s) => s.spec.id === 'settle-kv')!.spec;
+/** Name/value pairs with another sign, a `contains` condition and a record opener. */
+const COLON_PAIRS: ParserSpec = {
+  id: 'test-colon-pairs', description: 'name: value pairs in blocks', detect: { patterns: ['x'] },
+  counters: { iteration: 'it' },
+  lines: { rules: [
+    { match: '^=== (?<iteration>[0-9]+)', startsRecord: true },
+    { keyValues: { assign: ':', kind: 'quantity' }, contains: ':' },
+  ] },
+};
 const RULES: ParserSpec = {
   id: 'test-rules',
   description: 'rules of every kind',
@@ -101,7 +111,7 @@ function patternsOf(spec: ParserSpec): string[] {
 }
 
 const FRAGMENTS = ['Step ', 'Step 3 t = 0.5', 'it = 12 cfl = 0.8', 'it: 7  cfl=1.5d-1', 'res_p=1e-3', ' res_u = 2.5E-04,', 'k=nan', 'w=****',
-  'mon drag 0.331 [N]', 'mon dp 12.5', 'mon q 1 [W', '  ', '\t', '# note', '---', 'FATAL x', ' ABORT', 'all done', 'done', '=', '[', ']',
+  'mon drag 0.331 [N]', 'iter=3 res_p=1e-3', ' step=2 time=0.5', 'it: 4 cl: 0.3', '=== 5', 'a:1,b:2', 'x = 7;', 'mon dp 12.5', 'mon q 1 [W', '  ', '\t', '# note', '---', 'FATAL x', ' ABORT', 'all done', 'done', '=', '[', ']',
   '=== iteration 4 ===', '  residual  res_p   1.0e-3', '  monitor   drag   0.3312  [-]', '  residual x', '1.5-105', '\r', 'é'];
 
 describe('byte path = text path on odd lines (property, V8 RegExp on text as the reference)', () => {
@@ -111,9 +121,10 @@ describe('byte path = text path on odd lines (property, V8 RegExp on text as the
     expect(patternsOf(BLOCK).every((p) => compileBytePattern(p) !== undefined)).toBe(true);
     expect(patternsOf(RULES).every((p) => compileBytePattern(p) !== undefined)).toBe(true);
     expect(patternsOf(RULES_WITH_ALTERNATION).every((p) => compileBytePattern(p) !== undefined)).toBe(false);
+    expect(patternsOf(KV).every((p) => p === '' || compileBytePattern(p) !== undefined)).toBe(true);
   });
 
-  it.each([['settle-block', BLOCK], ['rules of every kind', RULES], ['with an alternation', RULES_WITH_ALTERNATION]] as const)('%s', (_name, spec) => {
+  it.each([['settle-block', BLOCK], ['settle-kv', KV], ['name: value in blocks', COLON_PAIRS], ['rules of every kind', RULES], ['with an alternation', RULES_WITH_ALTERNATION]] as const)('%s', (_name, spec) => {
     const create = compileSpec(spec, NO_OVERRIDES);
     fc.assert(fc.property(log, fc.array(fc.integer({ min: 1, max: 64 }), { minLength: 1, maxLength: 4 }), (bytes, cuts) => {
       expect(byBatches(create, bytes, cuts)).toEqual(byText(create, bytes));

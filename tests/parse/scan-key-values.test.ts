@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { scanKeyValues } from '../../src/parse/scan-key-values.js';
+import { scanKeyValues, scanKeyValuesBytes } from '../../src/parse/scan-key-values.js';
 import { lexNumber } from '../../src/parse/lex-number.js';
 
 function pairs(line: string, assign = '=', names: string[] = []): [string, string][] {
@@ -49,5 +49,32 @@ describe('scanKeyValues', () => {
         && JSON.stringify(pairs(line, '=', cache)) === JSON.stringify(expected)
         && JSON.stringify(pairs(line, '=', cache)) === JSON.stringify(expected);
     }), { numRuns: 1500 });
+  });
+});
+
+// The byte scanner must offer exactly what the string scanner offers (the reference), with the
+// same accept/reject answers from the visitor, on ASCII lines inside a longer buffer.
+describe('scanKeyValuesBytes = scanKeyValues on ASCII lines (property)', () => {
+  const piece = fc.constantFrom('iter', 'res_p', 'a', 'x1', '=', '=>', ':', ' ', '  ', '\t', ',', ';', '\r', '1', '2.5e-3', '-7', 'nan', '**', '12:30', 'b=', '=9', 'k =', '= 4');
+  const line = fc.array(piece, { maxLength: 12 }).map((parts) => parts.join(''));
+  it.each(['=', ':', '=>'])('sign %j', (assign) => {
+    fc.assert(fc.property(line, fc.integer({ min: 0, max: 3 }), (text, reject) => {
+      const byText: string[] = [];
+      scanKeyValues(text, assign, (name, whole, start, end, index) => {
+        const value = whole.slice(start, end);
+        const ok = lexNumber(value) !== undefined && (reject === 0 || index % reject !== 1);
+        byText.push(`${index}:${name}=${value}:${ok}`);
+        return ok;
+      });
+      const bytes = Buffer.from(`#${text}#`, 'latin1');
+      const byBytes: string[] = [];
+      scanKeyValuesBytes(bytes, 1, 1 + text.length, Buffer.from(assign, 'latin1'), (ns, ne, vs, ve, index) => {
+        const value = bytes.toString('latin1', vs, ve);
+        const ok = lexNumber(value) !== undefined && (reject === 0 || index % reject !== 1);
+        byBytes.push(`${index}:${bytes.toString('latin1', ns, ne)}=${value}:${ok}`);
+        return ok;
+      });
+      expect(byBytes).toEqual(byText);
+    }), { numRuns: 3000, seed: 20261201 });
   });
 });
