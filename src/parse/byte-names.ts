@@ -12,6 +12,8 @@
  *
  * Cost: O(name length) per lookup; no allocation for a name seen before.
  */
+import { latin1 } from './byte-text.js';
+
 const MAX_NAMES = 4096;
 
 export class ByteNames {
@@ -86,9 +88,4 @@ function internalized(text: string): string {
 function sameBytes(key: Uint8Array, bytes: Uint8Array, start: number): boolean {
   for (let i = 0; i < key.length; i++) if (key[i] !== bytes[start + i]) return false;
   return true;
-}
-
-/** bytes[start, end) as a latin1 string (the characters of an ASCII line). */
-export function latin1(bytes: Uint8Array, start: number, end: number): string {
-  return Buffer.isBuffer(bytes) ? bytes.toString('latin1', start, end) : Buffer.from(bytes.buffer, bytes.byteOffset + start, end - start).toString('latin1');
 }

@@ -14,7 +14,8 @@ import type { KindOverrides, ParseStats, RecordParser, RecordSink, RecordSinkOpt
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { capLine, groupNames, leadingLiteral, PATTERN_LINE_LIMIT, UserPattern } from './user-pattern.js';
 import { compileBytePattern, type BytePattern } from './byte-pattern.js';
-import { ByteNames, latin1 } from './byte-names.js';
+import { ByteNames } from './byte-names.js';
+import { indexOfBytes, latin1 } from './byte-text.js';
 import { globMatcher } from '../text/glob.js';
 import { lexNumber, lexNumberBytes, lexNumberIn } from './lex-number.js';
 import { scanKeyValues, scanKeyValuesBytes } from './scan-key-values.js';
@@ -335,7 +336,7 @@ class SpecParser implements RecordParser {
   /** One rule on the line's first `end - start` bytes (the pattern's view); `lineEnd` is the whole
    * line's end (a `contains` condition looks at the whole line, as on the text path). */
   private applyByteRule(byteRule: ByteRule, bytes: Buffer, start: number, end: number, lineEnd: number): boolean {
-    if (byteRule.contains !== undefined && !containsBytes(bytes, start, lineEnd, byteRule.contains)) return false;
+    if (byteRule.contains !== undefined && indexOfBytes(bytes, byteRule.contains, start, lineEnd) < 0) return false;
     const { caps, rule } = byteRule;
     const pattern = byteRule.pattern;
     if (pattern === undefined) {
@@ -647,7 +648,7 @@ class SpecParser implements RecordParser {
       // The first rule that matches decides: a rule before the one that opens the record would
       // add to the record being closed, so the line could not start a range.
       for (const byteRule of program.rules) {
-        if (byteRule.contains !== undefined && !containsBytes(data, start, end, byteRule.contains)) continue;
+        if (byteRule.contains !== undefined && indexOfBytes(data, byteRule.contains, start, end) < 0) continue;
         // A name/value rule counts as matching whenever it looks at the line (it may find pairs).
         if (byteRule.pattern === undefined || byteRule.pattern.exec(data, start, seen, start, byteRule.caps) >= 0) return byteRule.rule.startsRecord;
       }
@@ -677,19 +678,6 @@ class SpecParser implements RecordParser {
   stats(): ParseStats {
     return this.assembler.stats();
   }
-}
-
-/** Does bytes[start, end) contain `literal`? */
-function containsBytes(bytes: Buffer, start: number, end: number, literal: Buffer): boolean {
-  const first = literal[0];
-  const last = end - literal.length;
-  for (let i = start; i <= last; i++) {
-    if (bytes[i] !== first) continue;
-    let k = 1;
-    while (k < literal.length && bytes[i + k] === literal[k]) k++;
-    if (k === literal.length) return true;
-  }
-  return false;
 }
 
 /** JS `\s` on ASCII bytes. */

@@ -1,3 +1,5 @@
+import { latin1 } from './byte-text.js';
+
 /**
  * Number lexing for solver logs: every form solvers print, in one function on the hot path.
  *
@@ -154,9 +156,6 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
   return negative ? -value : value;
 }
 
-function latin1(bytes: Uint8Array, start: number, end: number): string {
-  return String.fromCharCode.apply(null, bytes.subarray(start, end) as unknown as number[]);
-}
 
 const ZERO = 48;
 const DOT = 46;

@@ -18,6 +18,8 @@
 /** Called for each candidate pair, with its name, the value at [valueStart, valueEnd) of `line`,
  * and the index of the pair on the line (0, 1, ...). Returns whether it took the pair (a value it
  * could read). */
+import { indexOfBytes } from './byte-text.js';
+
 export type PairVisitor = (name: string, line: string, valueStart: number, valueEnd: number, index: number) => boolean;
 
 function isDelimiter(code: number): boolean {
@@ -117,17 +119,4 @@ export function scanKeyValuesBytes(bytes: Uint8Array, start: number, end: number
     pos = valueEnd > at + step ? valueEnd : at + step;
   }
   return taken;
-}
-
-/** First index of `needle` in bytes[from, end), or -1. */
-function indexOfBytes(bytes: Uint8Array, needle: Uint8Array, from: number, end: number): number {
-  const first = needle[0];
-  const last = end - needle.length;
-  for (let i = from; i <= last; i++) {
-    if (bytes[i] !== first) continue;
-    let k = 1;
-    while (k < needle.length && bytes[i + k] === needle[k]) k++;
-    if (k === needle.length) return i;
-  }
-  return -1;
 }

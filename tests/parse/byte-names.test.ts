@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { ByteNames, latin1 } from '../../src/parse/byte-names.js';
+import { ByteNames } from '../../src/parse/byte-names.js';
+import { latin1 } from '../../src/parse/byte-text.js';
 
 // Reference: a plain Map from the decoded text to the order of first sight, and Buffer's own
 // latin1 decoding (Node.js Buffer docs, 'latin1' encoding: one byte, one character U+0000..U+00FF).
