@@ -225,8 +225,6 @@ class SpecParser implements RecordParser {
   private readonly assembler: RecordAssembler;
   private readonly info = new Map<string, SeriesInfo>();
   private readonly byteNames = new ByteNames();
-  /** Series info by ByteNames index, as last looked up (see addBytePair). */
-  private readonly byteInfo: (SeriesInfo | undefined)[] = [];
   /** Series registrations, recorded when this parser parses one range of a log (a worker). */
   private registrations: SeriesRegistration[] | undefined;
   private columns: string[] | null = null;
@@ -399,21 +397,11 @@ class SpecParser implements RecordParser {
       if (counter !== undefined) { this.pairsSeen++; this.assembler.setCounter(counter, value); return; }
     }
     const hasUnit = unitCap >= 0 && caps[2 * unitCap] >= 0;
-    // The series' info as last looked up (info objects are replaced, never changed: a stale one
-    // still says the series is known; it is looked up again only when a unit may be new).
-    const byteInfo = this.byteInfo;
-    let known = index >= 0 && index < byteInfo.length ? byteInfo[index] : undefined;
+    const known = this.info.get(name);
     if (known === undefined || (hasUnit && known.unit === undefined)) {
-      known = this.info.get(name);
-      if (known === undefined || (hasUnit && known.unit === undefined)) {
-        // New, or may get its first unit: the text path's rule, on the unit's text.
-        this.addValue(name, value, hasUnit ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1]) : undefined);
-        return;
-      }
-      if (index >= 0) {
-        while (byteInfo.length <= index) byteInfo.push(undefined);
-        byteInfo[index] = known;
-      }
+      // New, or may get its first unit: the text path's rule, on the unit's text.
+      this.addValue(name, value, hasUnit ? latin1(bytes, caps[2 * unitCap], caps[2 * unitCap + 1]) : undefined);
+      return;
     }
     this.pairsSeen++;
     this.assembler.current().set(name, value);
