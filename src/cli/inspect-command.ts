@@ -39,7 +39,7 @@ export async function inspectLogs(paths: readonly string[], options: SourceOptio
   monitor.on('source', (event) => {
     if (event.type === 'warning') warnings.push(event.message);
   });
-  await monitor.run();
+  await monitor.read();
   const snapshot = monitor.store.snapshot();
   const choice = monitor.parserChoice();
   return {

@@ -251,26 +251,31 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
     return latest;
   }
 
+  async function readToEnd(): Promise<void> {
+    if (source !== undefined || ran) throw new Error('run() or read() called twice on one monitor');
+    ran = true;
+    if (!(await readFileInParallel())) {
+      source = openLineSource({ paths: options.paths, follow: options.follow, pollMs: options.pollMs, stdin: options.stdin });
+      await source.run({
+        onLines: (lines) => guarded(() => onLines(lines)),
+        onEvent: (event) => guarded(() => onEvent(event)),
+      });
+    }
+    if (detectionTimer !== undefined) clearTimeout(detectionTimer);
+    if (quietTimer !== undefined) clearTimeout(quietTimer);
+    if (failure !== undefined) throw failure;
+  }
+
   const monitor: RunMonitor = {
     label,
     store,
     async run(): Promise<RunDiagnosis> {
-      if (source !== undefined || ran) throw new Error('run() called twice on one monitor');
-      ran = true;
-      if (!(await readFileInParallel())) {
-        source = openLineSource({ paths: options.paths, follow: options.follow, pollMs: options.pollMs, stdin: options.stdin });
-        await source.run({
-          onLines: (lines) => guarded(() => onLines(lines)),
-          onEvent: (event) => guarded(() => onEvent(event)),
-        });
-      }
-      if (detectionTimer !== undefined) clearTimeout(detectionTimer);
-      if (quietTimer !== undefined) clearTimeout(quietTimer);
-      if (failure !== undefined) throw failure;
+      await readToEnd();
       finished = finalDiagnosis();
       events.emit('end', finished);
       return finished;
     },
+    read: readToEnd,
     async stop(): Promise<void> {
       await source?.close();
     },

@@ -34,6 +34,25 @@ class Column implements SeriesColumn {
     this.totalAdded++;
   }
 
+  /** `push` of (iterations[valueRecords[j]], values[j]) for j in [from, to): the parallel read's
+   * values of one series, copied run by run between thinning passes (no per-value room check). */
+  pushIndexed(iterations: Float64Array, valueRecords: Int32Array, values: Float64Array, from: number, to: number): void {
+    let j = from;
+    while (j < to) {
+      if (this.length === this.values.length) this.makeRoom();
+      const run = Math.min(to - j, this.values.length - this.length);
+      const columnIterations = this.iterations;
+      const columnValues = this.values;
+      let at = this.length;
+      for (const end = j + run; j < end; j++, at++) {
+        columnIterations[at] = iterations[valueRecords[j]];
+        columnValues[at] = values[j];
+      }
+      this.length = at;
+      this.totalAdded += run;
+    }
+  }
+
   private makeRoom(): void {
     if (this.values.length < this.capacity) {
       const size = Math.min(this.capacity, this.values.length * 2);
@@ -130,13 +149,15 @@ export class SeriesStore {
     }
     const { seriesIds, seriesStarts, valueRecords, values } = records;
     for (let k = 0; k < records.seriesCount; k++) {
-      let j = cursors[k];
+      const j = cursors[k];
       const end = seriesStarts[k + 1];
       if (j >= end || valueRecords[j] >= to) continue;
       const id = seriesIds[k];
       const column = (columns[id] ??= this.columnOf(names[id], infoOf)) as Column;
-      for (; j < end && valueRecords[j] < to; j++) column.push(iterations[valueRecords[j]], values[j]);
-      cursors[k] = j;
+      // The slot's values up to record `to`: records are increasing, so a binary search.
+      const stop = valueRecords[end - 1] < to ? end : firstAtLeast(valueRecords, j, end, to);
+      column.pushIndexed(iterations, valueRecords, values, j, stop);
+      cursors[k] = stop;
     }
     this.recordCount += added;
     if (added > 0) this.lastIterationSeen = last;
@@ -187,4 +208,16 @@ export class SeriesStore {
       timeSteps: this.steps.length > 0 ? this.steps : undefined,
     };
   }
+}
+
+/** The first index in [from, to) whose entry is >= value (entries increasing), or `to`. */
+function firstAtLeast(sorted: Int32Array, from: number, to: number, value: number): number {
+  let low = from;
+  let high = to;
+  while (low < high) {
+    const middle = (low + high) >>> 1;
+    if (sorted[middle] < value) low = middle + 1;
+    else high = middle;
+  }
+  return low;
 }

@@ -38,6 +38,7 @@ function scriptedMonitor(script: readonly RunDiagnosis[], changes: readonly Stat
       await ended;
       return current;
     },
+    async read() { await monitor.run(); },
     async stop() { stopped = true; stop?.(); },
     parserChoice: () => undefined,
     parseStats: () => undefined,

@@ -62,6 +62,7 @@ export function fakeMonitor(label: string, store = new SeriesStore()): FakeMonit
     emitter,
     paceNow: makePace(),
     run: () => Promise.resolve(latest),
+    read: () => Promise.resolve(),
     stop: () => Promise.resolve(),
     parserChoice: () => choice,
     parseStats: () => undefined,
