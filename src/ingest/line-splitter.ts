@@ -105,27 +105,38 @@ export class LineSplitter {
       const region = chunk.subarray(start, lastNewline + 1);
       const ascii = isAscii(region);
       if (!ascii && !this.warnedUtf8 && !isUtf8(region)) this.warnUtf8();
-      const max = this.maxLineBytes;
-      let count = 0;
-      let starts = this.starts;
-      let ends = this.ends;
-      while (newline >= 0) {
-        let end = newline;
-        if (end > start && chunk[end - 1] === CR) end -= 1;
-        if (end - start > max) end = this.cutEnd(chunk, start, end);
-        if (count === starts.length) {
-          starts = this.starts = grow(starts);
-          ends = this.ends = grow(ends);
-        }
-        starts[count] = start;
-        ends[count] = end;
-        count++;
-        start = newline + 1;
-        newline = start < length ? chunk.indexOf(LF, start) : -1;
-      }
-      onBatch(new LineBatch(chunk, starts, ends, count, ascii));
+      const count = this.findLines(chunk, start, newline);
+      onBatch(new LineBatch(chunk, this.starts, this.ends, count, ascii));
+      start = lastNewline + 1;
     }
     if (start < length) this.keep(chunk, start, length);
+  }
+
+  /** The bounds of the lines of chunk[start, last newline], the first ending at `newline`, into
+   * `starts`/`ends`; returns how many. (The hot loop, in a method of its own: a loop in a function
+   * called once per chunk is optimised on the fly, and code after such a loop was measured to
+   * throw that optimised code away on every chunk.) */
+  private findLines(chunk: Buffer, start: number, newline: number): number {
+    const length = chunk.length;
+    const max = this.maxLineBytes;
+    let count = 0;
+    let starts = this.starts;
+    let ends = this.ends;
+    while (newline >= 0) {
+      let end = newline;
+      if (end > start && chunk[end - 1] === CR) end -= 1;
+      if (end - start > max) end = this.cutEnd(chunk, start, end);
+      if (count === starts.length) {
+        starts = this.starts = grow(starts);
+        ends = this.ends = grow(ends);
+      }
+      starts[count] = start;
+      ends[count] = end;
+      count++;
+      start = newline + 1;
+      newline = start < length ? chunk.indexOf(LF, start) : -1;
+    }
+    return count;
   }
 
   /** End of input: the unfinished last line, if any, goes to `onBatch` as a final line (CR

@@ -85,11 +85,12 @@ export class RecordChunkBuilder {
     const seriesCount = this.ids.size;
     const scratch = this.scratchFor(count, total, seriesCount);
     const { seriesIds, seriesStarts, slotStart, valueRecords, values, flags } = scratch;
-    // Counting sort of the values by series id (ids are 0..seriesCount-1).
+    // Counting sort of the values by series id (ids are 0..seriesCount-1). The loops are
+    // functions of their own: see LineSplitter.findLines for why.
     const seen = scratch.seen;
     seen.fill(0, 0, seriesCount + 1);
     const series = this.series;
-    for (let v = 0; v < total; v++) seen[series[v] + 1]++;
+    countIds(series, total, seen);
     let slots = 0;
     let at = 0;
     for (let id = 0; id < seriesCount; id++) {
@@ -103,19 +104,8 @@ export class RecordChunkBuilder {
     }
     seriesStarts[slots] = at;
     const valueEnds = this.valueEnds;
-    const rowValues = this.values;
-    let record = 0;
-    for (let v = 0; v < total; v++) {
-      while (valueEnds[record] <= v) record++;
-      const to = slotStart[series[v]]++;
-      valueRecords[to] = record;
-      values[to] = rowValues[v];
-    }
-    let previousEnd = 0;
-    for (let r = 0; r < count; r++) {
-      flags[r] = this.restarts[r] | (valueEnds[r] === previousEnd ? NO_VALUES : 0);
-      previousEnd = valueEnds[r];
-    }
+    scatterBySeries(series, this.values, valueEnds, total, slotStart, valueRecords, values);
+    flagRecords(this.restarts, valueEnds, count, flags);
     const chunk: RecordChunk = {
       count,
       iterations: this.iterations.subarray(0, count),
@@ -164,6 +154,30 @@ export class RecordChunkBuilder {
     const size = this.values.length * 2;
     this.series = grown(this.series, new Uint32Array(size));
     this.values = grown(this.values, new Float64Array(size));
+  }
+}
+
+function countIds(series: Uint32Array, total: number, seen: Int32Array): void {
+  for (let v = 0; v < total; v++) seen[series[v] + 1]++;
+}
+
+/** Value v (of record r: valueEnds[r - 1] <= v < valueEnds[r]) goes to slot `slotStart[its id]++`. */
+function scatterBySeries(series: Uint32Array, rowValues: Float64Array, valueEnds: Int32Array, total: number,
+  slotStart: Int32Array, valueRecords: Int32Array, values: Float64Array): void {
+  let record = 0;
+  for (let v = 0; v < total; v++) {
+    while (valueEnds[record] <= v) record++;
+    const to = slotStart[series[v]]++;
+    valueRecords[to] = record;
+    values[to] = rowValues[v];
+  }
+}
+
+function flagRecords(restarts: Uint8Array, valueEnds: Int32Array, count: number, flags: Uint8Array): void {
+  let previousEnd = 0;
+  for (let r = 0; r < count; r++) {
+    flags[r] = restarts[r] | (valueEnds[r] === previousEnd ? NO_VALUES : 0);
+    previousEnd = valueEnds[r];
   }
 }
 
