@@ -46,7 +46,7 @@ export class RecordChunkBuilder {
     const values = record.values;
     if (values instanceof RecordValues) {
       const { names, numbers } = values;
-      for (let k = 0; k < names.length; k++) {
+      for (let k = 0, size = values.size; k < size; k++) {
         // The k-th name of a record is usually the k-th name of the record before (the same string).
         const name = names[k];
         if (this.lastNames[k] === name) this.addId(this.lastIds[k], numbers[k]);

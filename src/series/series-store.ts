@@ -103,7 +103,7 @@ export class SeriesStore {
     if (values instanceof RecordValues) {
       // The parsers' records: two arrays, walked without a callback.
       const { names, numbers } = values;
-      for (let k = 0; k < names.length; k++) this.columnOf(names[k], infoOf).push(iteration, numbers[k]);
+      for (let k = 0, size = values.size; k < size; k++) this.columnOf(names[k], infoOf).push(iteration, numbers[k]);
     } else {
       values.forEach((value, name) => this.columnOf(name, infoOf).push(iteration, value));
     }
