@@ -7,14 +7,15 @@
  * same string object (later stages may compare names by identity). Names are ASCII (the byte path
  * runs on ASCII lines only), decoded as latin1.
  *
- * Bounded: after MAX_NAMES distinct names (a pattern capturing free text, not names), further
+ * Bounded: after MAX_BYTE_NAMES distinct names (a pattern capturing free text, not names), further
  * names are decoded on every call instead of being kept.
  *
  * Cost: O(name length) per lookup; no allocation for a name seen before.
  */
 import { latin1 } from './byte-text.js';
 
-const MAX_NAMES = 4096;
+/** Distinct names kept (indexOf returns indices below this). */
+export const MAX_BYTE_NAMES = 4096;
 
 export class ByteNames {
   private readonly keys: Uint8Array[] = [];
@@ -46,7 +47,7 @@ export class ByteNames {
       if (key.length === length && sameBytes(key, bytes, start)) return entry - 1;
       slot = (slot + 1) & mask;
     }
-    if (this.names.length >= MAX_NAMES) return -1;
+    if (this.names.length >= MAX_BYTE_NAMES) return -1;
     const name = internalized(latin1(bytes, start, end));
     // A copy (the line's buffer is reused by the reader).
     const key = new Uint8Array(end - start);

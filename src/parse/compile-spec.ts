@@ -14,7 +14,7 @@ import type { KindOverrides, ParseStats, RecordParser, RecordSink, RecordSinkOpt
 import { COUNTER_NAMES, type CounterName, type GroupSeries, type LineRule, type ParserSpec, type TableSeparator } from './parser-spec.js';
 import { capLine, groupNames, leadingLiteral, PATTERN_LINE_LIMIT, UserPattern } from './user-pattern.js';
 import { compileBytePattern, type BytePattern } from './byte-pattern.js';
-import { ByteNames } from './byte-names.js';
+import { ByteNames, MAX_BYTE_NAMES } from './byte-names.js';
 import { indexOfBytes, latin1 } from './byte-text.js';
 import { globMatcher } from '../text/glob.js';
 import { lexNumber, lexNumberBytes, lexNumberIn } from './lex-number.js';
@@ -95,6 +95,31 @@ interface BytePlan {
   /** By the first byte of a line: the patterns and rules that can match a line starting with it
    * (anchored patterns whose start bytes exclude it are left out), in the same order. */
   readonly byFirstByte: readonly LineProgram[];
+  /** Lanes by first byte and first byte after the blanks (see laneFor): filled on first use. */
+  readonly lanes: (ByteRule | null | undefined)[];
+}
+
+/** The line's first byte and its first byte after leading blanks (-1: none) → the slot of its lane. */
+function laneSlot(first: number, other: number): number {
+  return first * 129 + other + 1;
+}
+
+/** The one rule a line starting with these bytes goes through when the usual work for it reduces
+ * to one pattern and one name/value pair: no ignore or failure pattern can match it, exactly one
+ * rule can, and that rule is a `pairs` rule matched once, with a name and a value, no counters,
+ * no `contains` condition and not opening a record. Otherwise null (the line takes the general
+ * way). Decided from the patterns' start bytes, as the general way filters them. */
+function laneFor(plan: BytePlan, first: number, other: number): ByteRule | null {
+  const program = plan.byFirstByte[first];
+  if (program.ignore.some((pattern) => mayMatchAfterBlanks(pattern, other))) return null;
+  if (program.failure.some((pattern) => mayMatchAfterBlanks(pattern, other))) return null;
+  const rules = program.rules.filter((rule) => rule.pattern === undefined || mayMatchAfterBlanks(rule.pattern, other));
+  if (rules.length !== 1) return null;
+  const [only] = rules;
+  const { rule } = only;
+  const plain = only.pattern !== undefined && rule.type === 'pairs' && !rule.repeat && !rule.startsRecord
+    && only.counters.length === 0 && only.contains === undefined && only.nameCap >= 0 && only.valueCap >= 0;
+  return plain ? only : null;
 }
 
 interface LineProgram {
@@ -185,7 +210,7 @@ function planBytes(ignore: readonly string[], failure: readonly string[], specRu
   }
   const caps = new Int32Array(Math.max(2, ...[...ignorePatterns, ...failurePatterns].map((p) => p.capsLength)));
   const byFirstByte = Array.from({ length: 128 }, (_, byte) => programFor(byte, ignorePatterns, failurePatterns, byteRules));
-  return { ignore: ignorePatterns, failure: failurePatterns, rules: byteRules, caps, byFirstByte };
+  return { ignore: ignorePatterns, failure: failurePatterns, rules: byteRules, caps, byFirstByte, lanes: new Array<ByteRule | null | undefined>(128 * 129) };
 }
 
 function compileRule(rule: LineRule): CompiledRule {
@@ -262,6 +287,11 @@ class SpecParser implements RecordParser {
     return true;
   }
 
+  /** By name index (ByteNames): what a pair of that name needs on the lane (see pushLaneLine):
+   * NAME_SETTLED, NAME_WITHOUT_UNIT, or 0 (the general way: not seen on a lane yet, a counter, or
+   * a series the parser does not know). Only ever set from `info`, which only gains names and
+   * units, so a stale entry can only send a pair the general way. */
+  private readonly nameState = new Uint8Array(MAX_BYTE_NAMES);
   /** The line's bytes while the name/value scanner runs on them. */
   private pairBytes: Buffer = Buffer.alloc(0);
   /** onPair for the byte path: the same rules, the name and value read from the bytes. */
@@ -314,11 +344,19 @@ class SpecParser implements RecordParser {
     if (start === end) return;
     // Patterns see at most PATTERN_LINE_LIMIT characters, as on the text path (ASCII: one byte each).
     const seen = end - start > PATTERN_LINE_LIMIT ? start + PATTERN_LINE_LIMIT : end;
-    const program = plan.byFirstByte[bytes[start]];
+    const first = bytes[start];
+    const program = plan.byFirstByte[first];
     // The first byte after leading blanks (-1: blanks only), for patterns of the form ^\s*K.
     let firstOther = start;
     while (firstOther < seen && isBlankByte(bytes[firstOther])) firstOther++;
     const other = firstOther < seen ? bytes[firstOther] : -1;
+    const slot = laneSlot(first, other);
+    let lane = plan.lanes[slot];
+    if (lane === undefined) lane = plan.lanes[slot] = laneFor(plan, first, other);
+    if (lane !== null) {
+      this.pushLaneLine(lane, bytes, start, seen, end);
+      return;
+    }
     for (const pattern of program.ignore) if (mayMatchAfterBlanks(pattern, other) && pattern.exec(bytes, start, seen, start, plan.caps) >= 0) return;
     for (const pattern of program.failure) {
       if (mayMatchAfterBlanks(pattern, other) && pattern.exec(bytes, start, seen, start, plan.caps) >= 0) { assembler.fail(latin1(bytes, start, end).trim()); return; }
@@ -329,6 +367,45 @@ class SpecParser implements RecordParser {
     }
     if (!this.plan.blocks) assembler.close();
     if (!matched) assembler.noteUnmatched(latin1(bytes, start, end));
+  }
+
+  /** A line on its lane: what the general way does for it (the one rule, then the record closed
+   * for formats of one record per line, or the line noted as unmatched), with the series lookup
+   * skipped for a name already settled. */
+  private pushLaneLine(byteRule: ByteRule, bytes: Buffer, start: number, end: number, lineEnd: number): void {
+    const assembler = this.assembler;
+    const pattern = byteRule.pattern as BytePattern;
+    const caps = byteRule.caps;
+    if (pattern.exec(bytes, start, end, start, caps) < 0) {
+      if (!this.plan.blocks) assembler.close();
+      assembler.noteUnmatched(latin1(bytes, start, lineEnd));
+      return;
+    }
+    this.pairKind = byteRule.rule.kind;
+    const valueCap = 2 * byteRule.valueCap;
+    const nameCap = 2 * byteRule.nameCap;
+    if (caps[valueCap] >= 0 && caps[nameCap] >= 0) {
+      const value = lexNumberBytes(bytes, caps[valueCap], caps[valueCap + 1]);
+      if (value !== undefined) {
+        const index = this.byteNames.indexOf(bytes, caps[nameCap], caps[nameCap + 1]);
+        const state = index >= 0 ? this.nameState[index] : 0;
+        if (state === NAME_SETTLED || (state === NAME_WITHOUT_UNIT && (byteRule.unitCap < 0 || caps[2 * byteRule.unitCap] < 0))) {
+          this.pairsSeen++;
+          assembler.current().set(this.byteNames.nameAt(index), value);
+        } else {
+          this.addBytePair(byteRule, bytes);
+          if (index >= 0) this.nameState[index] = this.laneStateOf(this.byteNames.nameAt(index));
+        }
+      }
+    }
+    if (!this.plan.blocks) assembler.close();
+  }
+
+  private laneStateOf(name: string): number {
+    if (this.plan.counterOf.has(name)) return 0;
+    const info = this.info.get(name);
+    if (info === undefined) return 0;
+    return info.unit !== undefined ? NAME_SETTLED : NAME_WITHOUT_UNIT;
   }
 
   /** One rule on the line's first `end - start` bytes (the pattern's view); `lineEnd` is the whole
@@ -669,6 +746,11 @@ class SpecParser implements RecordParser {
 }
 
 /** JS `\s` on ASCII bytes. */
+/** A lane's pair of this name just sets its value: a known series with a unit. */
+const NAME_SETTLED = 1;
+/** The same, for a series with no unit yet: only when the pair brings no unit. */
+const NAME_WITHOUT_UNIT = 2;
+
 function isBlankByte(byte: number): boolean {
   return byte === 32 || (byte >= 9 && byte <= 13);
 }
