@@ -99,6 +99,22 @@ const RULES: ParserSpec = {
   },
 };
 
+/** Lines that take the byte path's lane (one plain name/value rule for their first bytes): names
+ * first seen without a unit and then with one (or an empty one), a name that is a counter, and
+ * the same rules with one record per line (no record opener). */
+const LANES: ParserSpec = {
+  id: 'test-lanes', description: 'pairs on a lane', detect: { patterns: ['x'] },
+  counters: { iteration: 'iter' },
+  ignore: ['^#'],
+  failure: ['^\\s*FATAL\\b'],
+  lines: { rules: [
+    { match: '^=== iteration (?<iteration>[0-9]+) ===', startsRecord: true },
+    { match: '^\\s*val\\s+(?<name>\\S+)\\s+(?<value>\\S+)(?:\\s+\\[(?<unit>[^\\]]*)\\])?', pairs: { kind: 'quantity', unitGroup: 'unit' } },
+    { match: '^\\s*res\\s+(?<name>\\S+)\\s+(?<value>\\S+)', pairs: { kind: 'residual' } },
+  ] },
+};
+const LANES_ONE_PER_LINE: ParserSpec = { ...LANES, id: 'test-lanes-flat', lines: { rules: LANES.lines!.rules.slice(1) } };
+
 /** The same with a pattern outside the byte matcher's subset: every line goes the text way. */
 const RULES_WITH_ALTERNATION: ParserSpec = {
   ...RULES,
@@ -112,7 +128,9 @@ function patternsOf(spec: ParserSpec): string[] {
 
 const FRAGMENTS = ['Step ', 'Step 3 t = 0.5', 'it = 12 cfl = 0.8', 'it: 7  cfl=1.5d-1', 'res_p=1e-3', ' res_u = 2.5E-04,', 'k=nan', 'w=****',
   'mon drag 0.331 [N]', 'iter=3 res_p=1e-3', ' step=2 time=0.5', 'it: 4 cl: 0.3', '=== 5', 'a:1,b:2', 'x = 7;', 'mon dp 12.5', 'mon q 1 [W', '  ', '\t', '# note', '---', 'FATAL x', ' ABORT', 'all done', 'done', '=', '[', ']',
-  '=== iteration 4 ===', '  residual  res_p   1.0e-3', '  monitor   drag   0.3312  [-]', '  residual x', '1.5-105', '\r', 'é'];
+  '=== iteration 4 ===', '  residual  res_p   1.0e-3', '  monitor   drag   0.3312  [-]', '  residual x', '1.5-105', '\r', 'é',
+  '  monitor   drag   0.33', '  monitor   drag   0.34  []', '  monitor   q  1.5 [W]', '  monitor   q  nan',
+  '  val iter 5', ' val drag 0.3', '  val drag 0.31 [N]', '\tval drag 0.32 []', 'val p 1e5 [Pa]', 'val p x', '  res r 1e-3', 'res r2 2e-3', ' res q 4', '   FATAL', '#val x 1'];
 
 describe('byte path = text path on odd lines (property, V8 RegExp on text as the reference)', () => {
   const line = fc.array(fc.constantFrom(...FRAGMENTS), { minLength: 0, maxLength: 5 }).map((parts) => parts.join(''));
@@ -124,10 +142,24 @@ describe('byte path = text path on odd lines (property, V8 RegExp on text as the
     expect(patternsOf(KV).every((p) => p === '' || compileBytePattern(p) !== undefined)).toBe(true);
   });
 
-  it.each([['settle-block', BLOCK], ['settle-kv', KV], ['name: value in blocks', COLON_PAIRS], ['rules of every kind', RULES], ['with an alternation', RULES_WITH_ALTERNATION]] as const)('%s', (_name, spec) => {
+  it.each([['settle-block', BLOCK], ['settle-kv', KV], ['name: value in blocks', COLON_PAIRS], ['rules of every kind', RULES], ['with an alternation', RULES_WITH_ALTERNATION],
+    ['pairs on a lane', LANES], ['pairs on a lane, one record per line', LANES_ONE_PER_LINE]] as const)('%s', (_name, spec) => {
     const create = compileSpec(spec, NO_OVERRIDES);
     fc.assert(fc.property(log, fc.array(fc.integer({ min: 1, max: 64 }), { minLength: 1, maxLength: 4 }), (bytes, cuts) => {
       expect(byBatches(create, bytes, cuts)).toEqual(byText(create, bytes));
     }), { numRuns: 600, seed: 20261201 });
+  });
+});
+
+describe('byte path = text path past the name table\'s bound', () => {
+  it('gives the same records when a log has more distinct names than ByteNames keeps (4 096)', () => {
+    const lines: string[] = [];
+    for (let k = 0; k < 5000; k++) lines.push(`=== iteration ${k + 1} ===`, `  val q${k} ${k}.5`, `  val q${k % 7} ${k} [m]`, `  res r${k % 3} 1e-${k % 9}`);
+    const bytes = Buffer.from(lines.join('\n'), 'utf8');
+    const create = compileSpec(LANES, NO_OVERRIDES);
+    const reference = byText(create, bytes);
+    expect(reference.records.length).toBe(5000);
+    expect(byBatches(create, bytes)).toEqual(reference);
+    expect(byBatches(create, bytes, [777, 65536])).toEqual(reference);
   });
 });
