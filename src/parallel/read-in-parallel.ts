@@ -63,7 +63,9 @@ export interface ParallelReadOptions {
   readonly maxLineBytes?: number;
   /** Worker threads (default: the machine's cores, at most 4). */
   readonly workers?: number;
-  /** Bytes per range (default: a quarter of the file per worker, at least 4 MiB). */
+  /** Bytes per range (default: an eighth of the file per worker, at least 4 MiB: measured on the
+   * 787 MB bench log with two workers, 16 ranges 2.55 s, 8 ranges 2.64 s, 4 ranges 2.73 s, 32
+   * ranges 2.63 s; smaller ranges join sooner and leave less of a tail, each costs a little). */
   readonly rangeBytes?: number;
   readonly progressEveryMs?: number;
   /** Also read formats of one record per line in ranges (default false: with two cores the main
@@ -119,7 +121,7 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
   };
 
   const workerCount = Math.max(1, Math.min(options.workers ?? availableParallelism(), 4));
-  const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workerCount * 4)));
+  const rangeBytes = options.rangeBytes ?? Math.max(4 * 1024 * 1024, Math.ceil(size / (workerCount * 8)));
   const rangeCount = Math.max(1, Math.ceil(size / rangeBytes));
   // Workers start while the parser is chosen (their start-up overlaps detection).
   const workers = Array.from({ length: Math.min(workerCount, rangeCount) }, () => {
