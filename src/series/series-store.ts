@@ -41,14 +41,22 @@ class Column implements SeriesColumn {
     while (j < to) {
       if (this.length === this.values.length) this.makeRoom();
       const run = Math.min(to - j, this.values.length - this.length);
-      const columnIterations = this.iterations;
-      const columnValues = this.values;
-      let at = this.length;
-      for (const end = j + run; j < end; j++, at++) {
-        columnIterations[at] = iterations[valueRecords[j]];
-        columnValues[at] = values[j];
+      const at = this.length;
+      const first = valueRecords[j];
+      if (valueRecords[j + run - 1] - first === run - 1) {
+        // The series has a value in every record of the run (records are increasing): two block copies.
+        this.iterations.set(iterations.subarray(first, first + run), at);
+        this.values.set(values.subarray(j, j + run), at);
+      } else {
+        const columnIterations = this.iterations;
+        const columnValues = this.values;
+        for (let k = 0; k < run; k++) {
+          columnIterations[at + k] = iterations[valueRecords[j + k]];
+          columnValues[at + k] = values[j + k];
+        }
       }
-      this.length = at;
+      j += run;
+      this.length = at + run;
       this.totalAdded += run;
     }
   }
