@@ -135,13 +135,13 @@ export function createRunMonitor(options: RunMonitorOptions): RunMonitor {
   }
 
   /** Choose and create the parser from the first lines (without feeding them). */
-  function chooseFrom(lines: readonly string[]): { choice: ParserChoice; parser: RecordParser } {
+  function chooseFrom(lines: readonly string[], inferenceLines?: () => readonly string[]): { choice: ParserChoice; parser: RecordParser } {
     const chosen = chooseParser(lines, {
       specs,
       forcedId: options.parserId,
       overrides: options.kindOverrides,
       source: label,
-    });
+    }, inferenceLines);
     // The store copies each record's values (SeriesStore.add), so the parser may reuse them.
     const created = chosen.create(onRecord, { copies: true });
     choice = chosen;

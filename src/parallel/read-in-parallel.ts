@@ -42,8 +42,10 @@ import { NO_VALUES, RESTART, type CompactRecords } from '../series/compact-recor
 
 
 export interface ParallelReadTarget {
-  /** Choose the parser from the first lines and create it; throws as detection does. */
-  choose(lines: readonly string[]): { readonly choice: ParserChoice; readonly parser: RecordParser };
+  /** Choose the parser from the first lines and create it; throws as detection does. Spec
+   * fitting reads `lines` (the first DETECTION_LINES); inference, when no spec fits, reads
+   * `inferenceLines()` (what the sequential read would have collected). */
+  choose(lines: readonly string[], inferenceLines: () => readonly string[]): { readonly choice: ParserChoice; readonly parser: RecordParser };
   /** Lines for the chosen parser (sequential reading). */
   onLines(batch: LineBatch): void;
   /** Records from..to-1 of a chunk (see SeriesStore.addCompactRecords; `columns` and `cursors`
@@ -131,13 +133,16 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
     return worker;
   });
   try {
-    let sample: string[];
-    try {
-      sample = firstLines(path, options.detectionLines, maxLineBytes);
-    } catch (error) {
-      throw readFailure(path, error);
-    }
-    const { choice, parser } = target.choose(sample);
+    const sampled = (all: boolean): string[] => {
+      try {
+        return firstLines(path, options.detectionLines, maxLineBytes, all);
+      } catch (error) {
+        throw readFailure(path, error);
+      }
+    };
+    // Decoding every line of the first 1 MiB (what the sequential read collects) took about 60 ms
+    // at start-up; specs are fitted on the first DETECTION_LINES, and only inference needs more.
+    const { choice, parser } = target.choose(sampled(false), () => sampled(true));
     const offered = parser.rangeParsing();
     const ranges = offered?.boundary === 'line' && options.oneLineRecords !== true ? undefined : offered;
     if (ranges === undefined) {
@@ -156,8 +161,8 @@ export async function readInParallel(options: ParallelReadOptions, target: Paral
 
 /** The lines the sequential read collects before choosing a parser: whole batches of 1 MiB
  * chunks from the top, until there are `wanted` lines or the file ends (read synchronously: one
- * or two reads at start-up). */
-function firstLines(path: string, wanted: number, maxLineBytes: number): string[] {
+ * or two reads at start-up); with `all` false, only the first `wanted` of them. */
+function firstLines(path: string, wanted: number, maxLineBytes: number, all: boolean): string[] {
   const lines: string[] = [];
   const splitter = new LineSplitter({ maxLineBytes });
   const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
@@ -170,7 +175,11 @@ function firstLines(path: string, wanted: number, maxLineBytes: number): string[
         break;
       }
       position += bytesRead;
-      splitter.pushBatches(buffer.subarray(0, bytesRead), (batch) => { if (lines.length < wanted) for (const line of batch) lines.push(line); });
+      splitter.pushBatches(buffer.subarray(0, bytesRead), (batch) => {
+        if (lines.length >= wanted) return;
+        const take = all ? batch.count : Math.min(batch.count, wanted - lines.length);
+        for (let i = 0; i < take; i++) lines.push(batch.text(i));
+      });
     }
   } finally {
     closeSync(fd);

@@ -28,7 +28,11 @@ export interface ChooseParserOptions {
 
 const DEFAULT_FIRST_LINES = 200;
 
-export function chooseParser(sampleLines: readonly string[], options: ChooseParserOptions): ParserChoice {
+/** `inferenceLines`: the lines inference looks at when no spec fits (default the sample itself).
+ * Spec fitting looks at most at the first 200 sample lines (`detect.firstLines` is at most 200),
+ * so a caller may pass those and decode more lines only when inference needs them. */
+export function chooseParser(sampleLines: readonly string[], options: ChooseParserOptions,
+  inferenceLines: () => readonly string[] = () => sampleLines): ParserChoice {
   const { specs, overrides } = options;
   if (options.forcedId !== undefined) {
     const spec = specs.find((s) => s.id === options.forcedId);
@@ -51,11 +55,12 @@ export function chooseParser(sampleLines: readonly string[], options: ChoosePars
     return choiceOf(best.spec.spec,
       `spec ${best.spec.id} (${origin(best.spec)}): ${best.matches} of the first ${best.looked} lines match its detection patterns`, overrides);
   }
-  const inferred = inferSpec(sampleLines);
+  const lines = inferenceLines();
+  const inferred = inferSpec(lines);
   if (inferred === undefined) {
-    const first = sampleLines.find((l) => l.trim().length > 0);
+    const first = lines.find((l) => l.trim().length > 0);
     throw new InputError(
-      `no iterations found in ${options.source}: no parser spec fits its first ${sampleLines.length} lines and no numeric table, name/value pairs or JSON lines were found${first === undefined ? '' : ` (first line: '${shorten(first, 60)}')`}`,
+      `no iterations found in ${options.source}: no parser spec fits its first ${lines.length} lines and no numeric table, name/value pairs or JSON lines were found${first === undefined ? '' : ` (first line: '${shorten(first, 60)}')`}`,
       'write a parser spec for this log and pass it with --parser FILE (see `settle parsers list` and parsers/README.md)');
   }
   return choiceOf(inferred.spec, inferred.explanation, overrides);

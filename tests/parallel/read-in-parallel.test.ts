@@ -52,6 +52,7 @@ async function read(path: string, parallel: RunMonitorOptions['parallel'], parse
   const snapshot = monitor.store.snapshot();
   return {
     parser: monitor.parserChoice()?.id,
+    explanation: monitor.parserChoice()?.explanation,
     stats: monitor.parseStats(),
     records: snapshot.records,
     lastIteration: snapshot.lastIteration,
@@ -198,6 +199,18 @@ describe('parallel read = sequential read', () => {
     const ranges = await expectSameBothWays(write('steps.log', `${lines.join('\n')}\n`), 1000, [stepSpec()]);
     expect(ranges.length).toBeGreaterThan(0);
     await expectSameBothWays(join(SAMPLES, 'periodic-heat-transient.kv.log'), 1500);
+  });
+
+  it('a log no spec fits is inferred from the same lines as read in one piece (a kind decided past the first 200 lines)', async () => {
+    // `res` stays flat for 300 lines and then falls over decades: a residual only to an inference
+    // that sees the lines past the first 200 (the whole first batch, as the sequential read does).
+    const rows = Array.from({ length: 600 }, (_, k) => `step: ${k + 1}  res: ${(k < 300 ? 1 + (k % 3) / 10 : 10 ** (-(k - 300) / 40)).toExponential(3)}  lift: ${(0.5 + 1 / (k + 2)).toFixed(4)}`);
+    const path = write('inferred.log', `${rows.join('\n')}\n`);
+    const reference = await read(path, false);
+    expect(reference.parser).toBe('inferred');
+    expect(reference.series.find((s) => s.info.name === 'res')?.info.kind).toBe('residual');
+    const ranges: string[] = [];
+    expect(await read(path, { minBytes: 0, workers: 2, rangeBytes: 4000, oneLineRecords: true, spawn: () => inThreadWorker(ranges) })).toEqual(reference);
   });
 
   it('formats on the text path (here a table) are read in one piece, with the same result', async () => {
