@@ -105,28 +105,28 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
   let code = start < end ? bytes[start] : -1;
   let negative = false;
   if (code === MINUS || code === PLUS) { negative = code === MINUS; i++; }
+  // Digits accumulate in a double: exact while below 2^53 (checked once, at the end: the running
+  // value only grows, so an exact end means every step was exact).
   let mantissa = 0;
-  let significant = 0;
-  let fractionDigits = 0;
-  let sawDigit = false;
+  const integerStart = i;
   for (; i < end; i++) {
     code = bytes[i] - ZERO;
     if (code < 0 || code > 9) break;
     mantissa = mantissa * 10 + code;
-    if (mantissa !== 0) significant++;
-    sawDigit = true;
   }
+  let digits = i - integerStart;
+  let fractionDigits = 0;
   if (i < end && bytes[i] === DOT) {
-    for (i++; i < end; i++) {
+    const fractionStart = ++i;
+    for (; i < end; i++) {
       code = bytes[i] - ZERO;
       if (code < 0 || code > 9) break;
       mantissa = mantissa * 10 + code;
-      if (mantissa !== 0) significant++;
-      fractionDigits++;
-      sawDigit = true;
     }
+    fractionDigits = i - fractionStart;
+    digits += fractionDigits;
   }
-  if (!sawDigit) return lexSlow(latin1(bytes, start, end));
+  if (digits === 0) return lexSlow(latin1(bytes, start, end));
   let exponent = 0;
   let exponentLetter = 0;
   if (i < end) {
@@ -147,7 +147,10 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
     if (exponentNegative) exponent = -exponent;
   }
   exponent -= fractionDigits;
-  if (significant > 15 || exponent > 22 || exponent < -22) {
+  // Clinger's fast path, as in lexNumberIn, with the mantissa's exactness checked by its size
+  // (below 2^53: a running value that stays below it was exact at every step) rather than by
+  // counting its significant digits.
+  if (mantissa >= MANTISSA_LIMIT || exponent > 22 || exponent < -22) {
     // What lexNumberIn does here, without reading the token a second time.
     const text = latin1(bytes, start, end);
     return Number(exponentLetter === LOWER_D ? text.replace(EXPONENT_D, 'e') : text);
@@ -156,6 +159,8 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
   return negative ? -value : value;
 }
 
+/** 2^53: every integer below it is an exact double, and a sum rounded up to it is not exact. */
+const MANTISSA_LIMIT = 2 ** 53;
 
 const ZERO = 48;
 const DOT = 46;
