@@ -29,6 +29,14 @@ export class ByteNames {
     return index >= 0 ? this.names[index] : latin1(bytes, start, end);
   }
 
+  /** Does bytes[start, end) spell the name at `index` (an index given by indexOf)? A caller that
+   * can guess the name (the same names come in the same order in every record) checks its guess
+   * with this and skips the hash lookup. */
+  spells(index: number, bytes: Uint8Array, start: number, end: number): boolean {
+    const key = this.keys[index];
+    return key.length === end - start && sameBytes(key, bytes, start);
+  }
+
   /** The name at an index given by indexOf. */
   nameAt(index: number): string {
     return this.names[index];

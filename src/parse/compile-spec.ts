@@ -292,6 +292,12 @@ class SpecParser implements RecordParser {
    * a series the parser does not know). Only ever set from `info`, which only gains names and
    * units, so a stale entry can only send a pair the general way. */
   private readonly nameState = new Uint8Array(MAX_BYTE_NAMES);
+  /** Lane name guessing: the name index seen after each one (-1: none yet), the last index seen
+   * on a lane and the guess for the next. One table for all lanes: a wrong guess costs one byte
+   * comparison and the usual lookup. */
+  private readonly laneNext = new Int32Array(MAX_BYTE_NAMES).fill(-1);
+  private laneLast = -1;
+  private laneGuess = -1;
   /** The line's bytes while the name/value scanner runs on them. */
   private pairBytes: Buffer = Buffer.alloc(0);
   /** onPair for the byte path: the same rules, the name and value read from the bytes. */
@@ -387,7 +393,15 @@ class SpecParser implements RecordParser {
     if (caps[valueCap] >= 0 && caps[nameCap] >= 0) {
       const value = lexNumberBytes(bytes, caps[valueCap], caps[valueCap + 1]);
       if (value !== undefined) {
-        const index = this.byteNames.indexOf(bytes, caps[nameCap], caps[nameCap + 1]);
+        // Names come in the same order record after record: try the name that followed the last
+        // one on this lane before looking it up.
+        const nameStart = caps[nameCap];
+        const nameEnd = caps[nameCap + 1];
+        const guess = this.laneGuess;
+        const index = guess >= 0 && this.byteNames.spells(guess, bytes, nameStart, nameEnd) ? guess : this.byteNames.indexOf(bytes, nameStart, nameEnd);
+        if (this.laneLast >= 0) this.laneNext[this.laneLast] = index;
+        this.laneLast = index;
+        this.laneGuess = index >= 0 ? this.laneNext[index] : -1;
         const state = index >= 0 ? this.nameState[index] : 0;
         if (state === NAME_SETTLED || (state === NAME_WITHOUT_UNIT && (byteRule.unitCap < 0 || caps[2 * byteRule.unitCap] < 0))) {
           this.pairsSeen++;

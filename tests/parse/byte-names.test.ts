@@ -52,6 +52,18 @@ describe('ByteNames', () => {
     expect(table.indexOf(k.bytes, k.start, k.end)).toBe(2);
   });
 
+  it('spells: true exactly when the bytes spell the name at that index (a guess is checked, never trusted)', () => {
+    const table = new ByteNames();
+    const names = ['res_p', 'res_q', 'res_pp', 'Res_p', 'res', ''];
+    for (const name of names) { const at = inLine(name); table.indexOf(at.bytes, at.start, at.end); }
+    for (const [i, name] of names.entries()) {
+      for (const other of [...names, 'res_', 'x']) {
+        const at = inLine(other, 'mon ', ' 1.5');
+        expect(table.spells(i, at.bytes, at.start, at.end)).toBe(other === name);
+      }
+    }
+  });
+
   it('tells apart names that differ in one byte, in length, or only in case; the empty name is a name', () => {
     const table = new ByteNames();
     const names = ['res_p', 'res_q', 'res_pp', 'Res_p', 'res_P', 'res', '', ' res_p'];
