@@ -26,6 +26,14 @@ export class LineBatch implements Iterable<string> {
     readonly ascii: boolean,
   ) {}
 
+  private cachedView: DataView | undefined;
+
+  /** A DataView of `bytes` (same offsets), made on first use: byte matchers read blanks through
+   * it eight at a time. */
+  get view(): DataView {
+    return this.cachedView ??= new DataView(this.bytes.buffer, this.bytes.byteOffset, this.bytes.byteLength);
+  }
+
   /** Number of lines (so a batch reads like an array of lines). */
   get length(): number {
     return this.count;

@@ -298,6 +298,8 @@ class SpecParser implements RecordParser {
   private readonly laneNext = new Int32Array(MAX_BYTE_NAMES).fill(-1);
   private laneLast = -1;
   private laneGuess = -1;
+  /** A DataView of the current batch's bytes (see BytePattern.exec). */
+  private view: DataView | undefined;
   /** The line's bytes while the name/value scanner runs on them. */
   private pairBytes: Buffer = Buffer.alloc(0);
   /** onPair for the byte path: the same rules, the name and value read from the bytes. */
@@ -338,6 +340,7 @@ class SpecParser implements RecordParser {
       return;
     }
     const { bytes, starts, ends } = batch;
+    this.view = batch.view;
     for (let i = from; i < to; i++) this.pushLineBytes(plan, bytes, starts[i], ends[i]);
   }
 
@@ -382,7 +385,7 @@ class SpecParser implements RecordParser {
     const assembler = this.assembler;
     const pattern = byteRule.pattern as BytePattern;
     const caps = byteRule.caps;
-    if (pattern.exec(bytes, start, end, start, caps) < 0) {
+    if (pattern.exec(bytes, start, end, start, caps, this.view) < 0) {
       if (!this.plan.blocks) assembler.close();
       assembler.noteUnmatched(latin1(bytes, start, lineEnd));
       return;
@@ -437,7 +440,7 @@ class SpecParser implements RecordParser {
       scanKeyValuesBytes(bytes, start, lineEnd, byteRule.assign as Uint8Array, this.onBytePair);
       return this.pairsSeen > 0;
     }
-    const matchEnd = pattern.exec(bytes, start, end, start, caps);
+    const matchEnd = pattern.exec(bytes, start, end, start, caps, this.view);
     if (matchEnd < 0) return false;
     const assembler = this.assembler;
     if (rule.startsRecord) assembler.close();
@@ -464,7 +467,7 @@ class SpecParser implements RecordParser {
       // Go on from where the match ended (one further after an empty match), as the text path does.
       let from = matchEnd === pattern.matchStart ? matchEnd + 1 : matchEnd;
       while (from < end) {
-        const next = pattern.exec(bytes, start, end, from, caps);
+        const next = pattern.exec(bytes, start, end, from, caps, this.view);
         if (next < 0) break;
         from = next === pattern.matchStart ? next + 1 : next;
         this.addBytePair(byteRule, bytes);
