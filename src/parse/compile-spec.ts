@@ -342,6 +342,8 @@ class SpecParser implements RecordParser {
     const { bytes, starts, ends } = batch;
     this.view = batch.view;
     for (let i = from; i < to; i++) this.pushLineBytes(plan, bytes, starts[i], ends[i]);
+    // The batch's bytes are the reader's to reuse: keep no view of them.
+    this.view = undefined;
   }
 
   /** `pushLine` on the bytes of an ASCII line: the same rules in the same order, the same records
