@@ -133,7 +133,7 @@ export function lexNumberBytes(bytes: Uint8Array, start: number, end: number): n
   return negative ? -value : value;
 }
 
-/** Not a plain exponent: sends the number to the full lexer (any value above 22 would). */
+/** Not a plain exponent: sends the number to lexNumberIn (as any exponent above 22 does). */
 const NOT_PLAIN = 1e9;
 
 /** The value of bytes[i, end) when it is exactly e|E[+|-]digits, else NOT_PLAIN. */
